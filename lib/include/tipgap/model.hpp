@@ -1,0 +1,43 @@
+#pragma once
+// The junction: tip and sample electrodes, barrier options, temperature, method and tolerance.
+#include <string>
+
+namespace tipgap {
+
+enum class image_kind {
+    none,         // plain trapezoid
+    exact,        // method-of-images series between two grounded planes (digamma closed form)
+    approximate,  // Simmons 1963 closed form -1.15 lambda s^2 / (x (s - x))
+};
+enum class method_kind {
+    wkb,      // numerical WKB transmission and Tsu-Esaki energy integral
+    simmons,  // Simmons 1963 intermediate-voltage closed form over the same barrier
+};
+
+// Enum <-> string, the one place for the names used in YAML, on the command line and in JSON.
+const char* to_string(image_kind k);
+const char* to_string(method_kind k);
+bool from_string(const std::string& s, image_kind& out);
+bool from_string(const std::string& s, method_kind& out);
+
+struct electrode {
+    std::string material;               // name from the materials library, or empty
+    double work_function_J = 4.5 * 1.602176634e-19;  // J, (0, 20 eV]
+    double fermi_energy_J = 5.5 * 1.602176634e-19;   // J, free-electron Fermi energy, (0, 50 eV]
+};
+
+struct model_options {
+    electrode tip;                          // at x = 0
+    electrode sample;                       // at x = s; V is the sample bias
+    image_kind image = image_kind::exact;
+    double relative_permittivity = 1.0;     // K of the gap medium, >= 1 (vacuum 1)
+    double temperature_K = 4.2;             // K, [0, 2000]
+    method_kind method = method_kind::wkb;
+    double rel_tol = 1e-6;                  // relative accuracy of J, [1e-12, 1e-2]
+    double bias_limit_V = 10.0;             // |V| above this is rejected, (0, 100] V
+
+    // Throws tipgap::error (input) naming the offending field when a value is out of range.
+    void validate() const;
+};
+
+}  // namespace tipgap
