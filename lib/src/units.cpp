@@ -165,7 +165,7 @@ double parse_quantity(std::string_view text, dimension d, const location& where)
     }
     double v = parse_number(number, where);
     if (unit.empty() && d != dimension::dimensionless) {
-        throw_input(where, fmt::format("'{}' has no unit; expected {} in {}", std::string(s), dimension_name(d),
+        throw_input(where, fmt::format("'{}' has no unit; expected {} in {}", std::string(s), dimension_phrase(d),
                                        accepted_units(d)));
     }
     double factor = 1.0;
