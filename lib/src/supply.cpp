@@ -1,3 +1,4 @@
+#include <algorithm>
 #include <cmath>
 
 #include "tipgap/current.hpp"
@@ -5,7 +6,11 @@
 namespace tipgap {
 
 double supply_function(double E, double eV, double kT) {
-    if (kT <= 0.0) return std::max(0.0, -E) - std::max(0.0, -E - eV);
+    if (kT <= 0.0) {
+        if (E <= std::min(0.0, -eV)) return eV;  // below both Fermi levels: exactly eV
+        if (E >= std::max(0.0, -eV)) return 0.0;
+        return std::max(0.0, -E) - std::max(0.0, -E - eV);
+    }
     // kT [softplus(a) - softplus(b)], a = -E/kT, b = -(E+eV)/kT, softplus(y) = ln(1 + e^y)
     // = max(y, 0) + log1p(e^-|y|). The linear parts are taken as eV/kT when both are positive so that
     // deep below the Fermi levels (|a| ~ 1e4 at 4 K) nothing cancels.
