@@ -10,6 +10,7 @@ namespace tipgap::plot {
 
 namespace {
 
+constexpr int max_bins = 10000;      // more bars than any page has pixels
 constexpr int max_auto_bins = 200;  // beyond this bars are thinner than a line: common practice, no source
 
 // Linear-interpolation quantile of sorted data (the "type 7" definition, Hyndman & Fan 1996).
@@ -31,7 +32,8 @@ void check_edges(const std::vector<double>& edges, const location& where) {
 
 histogram_bins make_histogram(const std::vector<double>& values, int bins, const std::vector<double>& edges) {
     histogram_bins out;
-    if (bins < 0) throw_input({}, fmt::format("histogram: bin count {} is negative; expected 0 (automatic) or more", bins));
+    if (bins < 0 || bins > max_bins)
+        throw_input({}, fmt::format("histogram: bin count {} is out of range; expected 0 (automatic) to {}", bins, max_bins));
     std::vector<double> finite;
     finite.reserve(values.size());
     for (double v : values)
@@ -86,8 +88,9 @@ namespace detail {
 void validate_histogram(const histogram_panel& p, const location& where) {
     validate_axis(p.x_axis, "x axis", where);
     if (p.x_axis.scale != axis_scale::linear) throw_input(where, "histogram: the x axis must be linear");
-    if (p.bins < 0)
-        throw_input(where, fmt::format("histogram: bin count {} is negative; expected 0 (automatic) or more", p.bins));
+    if (p.bins < 0 || p.bins > max_bins)
+        throw_input(where, fmt::format("histogram: bin count {} is out of range; expected 0 (automatic) to {}", p.bins,
+                                       max_bins));
     if (!p.edges.empty()) check_edges(p.edges, where);
     for (const reference_line& r : p.markers)
         if (!std::isfinite(r.value)) throw_input(where, "histogram: a marker value is not a finite number");

@@ -102,7 +102,7 @@ struct histogram_panel {
     axis x_axis;                            // label of the values; scale must be linear
     std::string y_label = "count";
     std::vector<double> values;             // non-finite values are left out (and counted)
-    int bins = 0;                           // ≥ 0; 0: automatic (Freedman–Diaconis); unused with edges
+    int bins = 0;                           // 0..10000; 0: automatic (Freedman–Diaconis); unused with edges
     std::vector<double> edges;              // optional bin edges, strictly ascending, ≥ 2 values
     std::vector<reference_line> markers;    // vertical lines, e.g. mean and median
     legend_position legend = legend_position::top_right;
@@ -132,7 +132,7 @@ struct histogram_bins {
     std::size_t left_out = 0;               // non-finite values and values outside the edges
 };
 
-// Bins `values`. bins: ≥ 0 (0: automatic, Freedman & Diaconis 1981, bin width 2·IQR·n^(-1/3));
+// Bins `values`. bins: 0..10000 (0: automatic, Freedman & Diaconis 1981, bin width 2·IQR·n^(-1/3));
 // edges: empty, or ≥ 2 strictly ascending values (then `bins` is unused).
 // Throws tipgap::error (input) for bad edges or a negative bin count.
 histogram_bins make_histogram(const std::vector<double>& values, int bins, const std::vector<double>& edges = {});
