@@ -134,7 +134,7 @@ struct histogram_bins {
 
 // Bins `values`. bins: 0..10000 (0: automatic, Freedman & Diaconis 1981, bin width 2·IQR·n^(-1/3));
 // edges: empty, or ≥ 2 strictly ascending values (then `bins` is unused).
-// Throws tipgap::error (input) for bad edges or a negative bin count.
+// Throws tipgap::error (input) for bad edges or a bin count outside 0..10000.
 histogram_bins make_histogram(const std::vector<double>& values, int bins, const std::vector<double>& edges = {});
 
 struct rgb {
