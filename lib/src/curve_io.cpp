@@ -57,7 +57,7 @@ double unit_factor(std::string_view unit, dimension d, std::string_view cell, co
 }
 
 void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta) {
-    std::string_view body = detail::trim_cell(line.substr(1));  // after '#'
+    std::string_view body = detail::trim_cell(line.substr(line.find('#') + 1));
     std::size_t colon = body.find(':');
     if (colon == std::string_view::npos) return;  // a plain comment
     std::string_view key = detail::trim_cell(body.substr(0, colon));
@@ -192,7 +192,7 @@ std::vector<curve_sweep> split_at_turns(const std::vector<double>& z_m, const st
 measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
     measured_curve curve;
     curve.file = file;
-    if (detail::is_blank(text)) {
+    if (text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
         throw_input(location{file, 0, 0, ""},
                     fmt::format("the file is empty; expected a header row such as {} followed by data rows",
                                 header_example));
@@ -209,7 +209,7 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
         std::string_view t = detail::trim_cell(line);
         if (t.empty()) continue;
         if (t.front() == '#') {
-            parse_metadata_line(t, lines.line_number(), file, curve.metadata);
+            parse_metadata_line(line, lines.line_number(), file, curve.metadata);
             continue;
         }
         header_line = lines.line_number();
@@ -278,8 +278,8 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
         const int n_cells = detail::count_cells(line);
         if (n_cells != n_columns) {
             throw_input(location{file, row_line, 1, ""},
-                        fmt::format("the row has {} cells; the header on line {} has {} columns", n_cells,
-                                    header_line, n_columns));
+                        fmt::format("the row has {} cell{}; the header on line {} has {} columns", n_cells,
+                                    n_cells == 1 ? "" : "s", header_line, n_columns));
         }
         detail::cell_cursor cells(line);
         std::string_view cell;

@@ -43,11 +43,13 @@ std::string format_current(double current_A) {
     return fmt::format("{:.3g} fA", current_A / 1e-15);
 }
 
-// An amplifier clips at one level, so a flat top shows as several maxima within a small band.
-// The band is the larger of 0.1 % of the maximum (ADC resolution, common practice, no source) and
-// 2 σ_I; three such points make a flat top (two equal neighbours happen by chance on a coarse ADC).
+// An amplifier clips at one level, so a flat top shows as several maxima within 0.1 % of the
+// maximum (a few ADC steps, common practice, no source); three such points make a flat top (two
+// equal neighbours happen by chance on a coarse ADC). The top must also stand well clear of the
+// noise (10 σ_I), or a curve of pure noise would count as saturated.
 constexpr double flat_top_relative_band = 1e-3;
 constexpr std::size_t flat_top_min_points = 3;
+constexpr double flat_top_min_sigmas = 10.0;
 // Amplifiers compress before they clip: points within 1 % of the flat top are dropped as well
 // (common practice, no source).
 constexpr double saturation_margin = 0.01;
@@ -55,7 +57,8 @@ constexpr double saturation_margin = 0.01;
 double detect_saturation(std::span<const double> abs_current, double noise_A) {
     if (abs_current.empty()) return 0.0;
     const double top = *std::max_element(abs_current.begin(), abs_current.end());
-    const double band = std::max(flat_top_relative_band * top, 2.0 * noise_A);
+    if (top < flat_top_min_sigmas * noise_A) return 0.0;
+    const double band = flat_top_relative_band * top;
     const auto n_top = static_cast<std::size_t>(
         std::count_if(abs_current.begin(), abs_current.end(), [&](double a) { return a >= top - band; }));
     if (n_top < flat_top_min_points) return 0.0;

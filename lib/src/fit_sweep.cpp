@@ -260,6 +260,12 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         r.iterations = 1;
         r.points_used = used.size();
         r.prefactor_A = std::exp(line.intercept + line.slope * r.z_ref_m);
+        // ln I0(z_ref) = intercept + slope z_ref; its variance from the line covariance, then
+        // σ_I0 = I0 σ_lnI0.
+        const double var_ln = line.intercept_stderr * line.intercept_stderr +
+                              r.z_ref_m * r.z_ref_m * line.slope_stderr * line.slope_stderr +
+                              2.0 * r.z_ref_m * line.covariance;
+        r.prefactor_stderr_A = r.prefactor_A * std::sqrt(std::max(var_ln, 0.0));
         r.r_squared = line.r_squared;
         r.residual_rms_ln = line.residual_rms;
         double ss = 0.0;
@@ -302,6 +308,7 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         if (!of.converged) r.warnings.push_back("the offset model did not converge: " + of.message);
         r.points_used = zz.size();
         r.prefactor_A = of.amplitude_A;
+        r.prefactor_stderr_A = of.amplitude_stderr_A;
         r.offset_A = s * of.offset_A;
         r.offset_stderr_A = of.offset_stderr_A;
         double mean = 0.0;

@@ -139,6 +139,7 @@ struct fit_result {
     double apparent_barrier_ci_high_J = 0.0;
     double length_per_decade_m = 0.0;             // ln 10 / (2κ), m
     double prefactor_A = 0.0;                     // fitted |I| at z_ref (excluding the offset), A
+    double prefactor_stderr_A = 0.0;              // A
     double z_ref_m = 0.0;                         // reference z of the prefactor (closest used point), m
     double offset_A = 0.0;                        // c of the offset model (0 for linear), A (signed
                                                   // like the current)
