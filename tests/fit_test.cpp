@@ -406,6 +406,22 @@ TEST(fit, local_profile_is_flat_for_a_pure_exponential) {
     EXPECT_EQ(l.profile.front().points, 21u);  // 0.1 nm at 0.005 nm spacing, both ends included
 }
 
+TEST(fit, negative_current_fits_like_positive) {
+    // Negative bias gives a negative current; the analysis uses |I| (and the offset keeps its sign).
+    const synthetic s;
+    curve_sweep pos = make_sweep(s, 55), neg = pos;
+    for (double& i : neg.current_A) i = -i;
+    EXPECT_EQ(fit_sweep(neg, no_bias, fit_options{}).decay_constant_per_m,
+              fit_sweep(pos, no_bias, fit_options{}).decay_constant_per_m);
+    fit_options o;
+    o.model = fit_model::offset;
+    const fit_result p = fit_sweep(pos, no_bias, o), n = fit_sweep(neg, no_bias, o);
+    EXPECT_NEAR(n.decay_constant_per_m, p.decay_constant_per_m, 1e-9 * p.decay_constant_per_m);
+    EXPECT_NEAR(n.offset_A, -p.offset_A, 1e-6 * p.offset_stderr_A);
+}
+
+// Regression: a curve of pure noise once counted as saturated, because the flat-top band was
+// 2 σ_I wide and several noise maxima fell inside it. The message must not mention saturation.
 TEST(fit, too_few_points_above_the_floor_is_an_input_error) {
     synthetic s;
     s.points = 20;
