@@ -5,6 +5,7 @@
 #include "commands.hpp"
 #include "output.hpp"
 #include "tipgap/constants.hpp"
+#include "tipgap/error.hpp"
 #include "tipgap/predict.hpp"
 #include "tipgap/sweep.hpp"
 
@@ -43,6 +44,12 @@ void run(const predict_args& a) {
     config c = load_config_or_default(a.config_path);
     auto gaps = parse_sweep(a.gap, dimension::length, a.points, spacing::linear, "--gap");
     auto biases = parse_sweep(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
+    // Two ranges of up to 1e6 points each would ask for 1e12 points: refuse before allocating.
+    constexpr std::size_t max_points = 10'000'000;
+    if (gaps.size() * biases.size() > max_points) {
+        throw_usage("--points", fmt::format("the grid has {} x {} = {} points; expected at most {} in one run",
+                                            gaps.size(), biases.size(), gaps.size() * biases.size(), max_points));
+    }
     std::vector<std::pair<double, double>> pts;
     for (double V : biases)
         for (double s : gaps) {

@@ -2,9 +2,10 @@
 // error into one line on stderr and a documented exit code (README "Exit codes").
 #include <cstdio>
 #include <exception>
-#include <fmt/format.h>
+#include <new>
 
 #include "commands.hpp"
+#include "errors.hpp"
 #include "tipgap/error.hpp"
 
 int main(int argc, char** argv) {
@@ -24,18 +25,15 @@ int main(int argc, char** argv) {
     } catch (const CLI::CallForVersion& e) {
         return app.exit(e);
     } catch (const CLI::ParseError& e) {
-        fmt::print(stderr, "tipgap: usage error: {}\nRun 'tipgap --help' for the commands and options.\n",
-                   e.what());
-        return static_cast<int>(tipgap::error_kind::usage);
+        return tipgap::cli::report_parse_error(app, e);
     } catch (const tipgap::error& e) {
-        const char* label = e.kind() == tipgap::error_kind::usage       ? "usage error"
-                            : e.kind() == tipgap::error_kind::no_answer ? "no answer"
-                                                                        : "error";
-        fmt::print(stderr, "tipgap: {}: {}\n", label, e.what());
-        return static_cast<int>(e.kind());
+        return tipgap::cli::report_error(e);
+    } catch (const std::bad_alloc&) {
+        return tipgap::cli::report_internal_error("out of memory");
     } catch (const std::exception& e) {
-        fmt::print(stderr, "tipgap: internal error (this is a bug; please report it): {}\n", e.what());
-        return 70;
+        return tipgap::cli::report_internal_error(e.what());
+    } catch (...) {
+        return tipgap::cli::report_internal_error("an exception that is not a std::exception");
     }
     return 0;
 }

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "tipgap/atomic_file.hpp"
+#include "tipgap/error.hpp"
 #include "tipgap/constants.hpp"
 
 namespace tipgap::cli {
@@ -34,7 +35,7 @@ CLI::Option* add_format_option(CLI::App* cmd, output_format& format) {
         ->add_option_function<std::string>(
             "--format",
             [&format](const std::string& s) {
-                if (!from_string(s, format)) throw CLI::ValidationError("--format", "expected table, csv or json, got '" + s + "'");
+                if (!from_string(s, format)) throw CLI::ValidationError("--format", quote_input(s) + " is not an output format; expected table, csv or json");
             },
             "Output format: table (rounded, for reading), csv or json (full precision)")
         ->type_name("table|csv|json");

@@ -159,12 +159,14 @@ TEST(curve_io, malformed_files_give_exact_messages) {
     EXPECT_EQ(message_of("z [nm],signal [nA]\n0,1\n"),
               "c.csv:1:1: the header has no 'current [<current unit>]' column; expected a header such as 'z "
               "[nm],current [nA]'");
-    EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,1\n0.2, abc\n"), "c.csv:3:6: 'abc' in column 'current' is not a number");
+    EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,1\n0.2, abc\n"), "c.csv:3:6: 'abc' in column 'current' is not a number; expected a plain number such as 0.25 (the unit goes "
+              "in the header)");
     EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,1\n0.2,\n"), "c.csv:3:5: empty cell in column 'current'; expected a number");
-    EXPECT_EQ(message_of("z [nm],current [nA]\nnan,1\n"), "c.csv:2:1: 'nan' in column 'z' is not a finite number");
-    EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,-inf\n"), "c.csv:2:5: '-inf' in column 'current' is not a finite number");
+    EXPECT_EQ(message_of("z [nm],current [nA]\nnan,1\n"), "c.csv:2:1: 'nan' in column 'z' is not a finite number; expected a finite value");
+    EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,-inf\n"), "c.csv:2:5: '-inf' in column 'current' is not a finite number; expected a finite value");
     EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,1e999\n"),
-              "c.csv:2:5: '1e999' in column 'current' is outside the range of a double");
+              "c.csv:2:5: '1e999' in column 'current' is outside the range of a double; expected a magnitude of 0 or "
+              "between about 1e-308 and 1e308");
     EXPECT_EQ(message_of("z [nm],current [nA]\n0.1,1\n0.2,0.5,7\n"),
               "c.csv:3:1: the row has 3 cells; the header on line 1 has 2 columns");
     EXPECT_EQ(message_of("z [nm],current [nA]\n0.1\n"), "c.csv:2:1: the row has 1 cell; the header on line 1 has 2 columns");

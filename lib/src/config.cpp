@@ -1,5 +1,7 @@
 #include "tipgap/config.hpp"
 
+#include <cstdint>
+#include <filesystem>
 #include <fmt/format.h>
 #include <fstream>
 #include <initializer_list>
@@ -38,21 +40,35 @@ struct reader {
         if (!n.IsMap()) throw_input(at(n, key), "expected a block of keys (a YAML mapping)");
     }
 
+    // Every key must be a plain name, appear once, and be one of `allowed`. (yaml-cpp keeps the
+    // first of two equal keys and drops the second silently; a config that says `tip:` twice is a
+    // mistake the user must hear about.)
     void check_keys(const YAML::Node& n, const std::string& prefix, std::initializer_list<const char*> allowed) const {
+        std::vector<std::string> seen;
         for (const auto& kv : n) {
+            if (!kv.first.IsScalar()) {
+                throw_input(at(kv.first, prefix.empty() ? "(top level)" : prefix),
+                            "this key is not a plain name; expected a name such as 'tip'");
+            }
             std::string k = kv.first.Scalar();
+            std::string path = prefix.empty() ? k : prefix + "." + k;
             bool ok = false;
             for (const char* a : allowed) ok = ok || k == a;
             if (!ok) {
                 std::string list;
                 for (const char* a : allowed) list += (list.empty() ? "" : ", ") + std::string(a);
-                throw_input(at(kv.first, prefix.empty() ? k : prefix + "." + k),
-                            fmt::format("unknown key; expected one of: {}", list));
+                location w = at(kv.first, prefix);
+                throw_input(w, fmt::format("unknown key {}; expected one of: {}", quote_input(k, 40), list));
             }
+            for (const auto& s : seen) {
+                if (s == k) throw_input(at(kv.first, path), "the key appears twice; expected each key once");
+            }
+            seen.push_back(k);
         }
     }
 
     std::string scalar(const YAML::Node& n, const std::string& key) const {
+        if (n.IsNull()) throw_input(at(n, key), "the value is missing; expected a single value after the colon");
         if (!n.IsScalar()) throw_input(at(n, key), "expected a single value, not a block or a list");
         return n.Scalar();
     }
@@ -82,7 +98,7 @@ void read_electrode(const reader& r, const YAML::Node& n, const std::string& key
     }
     if (n["fermi_energy"]) e.fermi_energy_J = r.quantity(n["fermi_energy"], key + ".fermi_energy", dimension::energy);
     if (!n["material"] && !n["work_function"]) {
-        throw_input(r.at(n, key), "needs a material or a work_function");
+        throw_input(r.at(n, key), "no work function given; expected a material or a work_function");
     }
 }
 
@@ -101,14 +117,18 @@ void validate_at(const reader& r, const YAML::Node& root, F&& f) {
             if (dot == std::string::npos) break;
             start = dot + 1;
         }
-        YAML::Node cur = YAML::Clone(root);
+        // Walk down with reset(): plain assignment of a YAML::Node writes through to the node it
+        // refers to, and would rewrite the tree instead of moving the cursor.
+        YAML::Node cur;
+        cur.reset(root);
         bool ok = true;
         for (const auto& p : parts) {
             if (!cur.IsMap() || !cur[p]) {
                 ok = false;
                 break;
             }
-            cur = cur[p];
+            YAML::Node child = cur[p];
+            cur.reset(child);
         }
         location w = ok ? r.at(cur, key) : r.at(YAML::Node(), key);
         if (!ok) w.file = r.file;
@@ -120,12 +140,12 @@ config parse_root(const YAML::Node& root, const std::string& name) {
     reader r{name};
     config c;
     c.source = name;
-    if (!root.IsDefined() || root.IsNull()) throw_input(r.at(YAML::Node(), ""), "the configuration is empty");
+    if (!root.IsDefined() || root.IsNull()) throw_input(r.at(YAML::Node(), ""), "the configuration is empty; expected at least a tip and a sample block");
     r.require_map(root, "(top level)");
     r.check_keys(root, "", {"name", "description", "tip", "sample", "barrier", "temperature", "method", "tolerance",
                             "bias_limit", "geometry"});
-    if (!root["tip"]) throw_input(r.at(root, "tip"), "missing: every configuration needs a tip block");
-    if (!root["sample"]) throw_input(r.at(root, "sample"), "missing: every configuration needs a sample block");
+    if (!root["tip"]) throw_input(r.at(root, "tip"), "the tip block is missing; expected a tip block (material or work_function)");
+    if (!root["sample"]) throw_input(r.at(root, "sample"), "the sample block is missing; expected a sample block (material or work_function)");
     read_electrode(r, root["tip"], "tip", c.model.tip, c.sigma.tip_work_function_J);
     read_electrode(r, root["sample"], "sample", c.model.sample, c.sigma.sample_work_function_J);
     if (auto b = root["barrier"]) {
@@ -135,7 +155,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
             std::string v = r.scalar(b["image_potential"], "barrier.image_potential");
             if (!from_string(v, c.model.image)) {
                 throw_input(r.at(b["image_potential"], "barrier.image_potential"),
-                            fmt::format("'{}' is not an image potential; expected exact, approximate or none", v));
+                            fmt::format("{} is not an image potential; expected exact, approximate or none", quote_input(v)));
             }
         }
         if (b["relative_permittivity"]) {
@@ -147,7 +167,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
     if (root["method"]) {
         std::string v = r.scalar(root["method"], "method");
         if (!from_string(v, c.model.method)) {
-            throw_input(r.at(root["method"], "method"), fmt::format("'{}' is not a method; expected wkb or simmons", v));
+            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected wkb or simmons", quote_input(v)));
         }
     }
     if (root["tolerance"]) c.model.rel_tol = r.quantity(root["tolerance"], "tolerance", dimension::dimensionless);
@@ -159,7 +179,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
             std::string v = r.scalar(g["kind"], "geometry.kind");
             if (!from_string(v, c.geometry.kind)) {
                 throw_input(r.at(g["kind"], "geometry.kind"),
-                            fmt::format("'{}' is not a geometry; expected planar, paraboloid or contact_anchored", v));
+                            fmt::format("{} is not a geometry; expected planar, paraboloid or contact_anchored", quote_input(v)));
             }
         }
         if (g["area"]) c.geometry.area_m2 = r.quantity(g["area"], "geometry.area", dimension::area);
@@ -185,7 +205,24 @@ YAML::Node load_yaml(std::string_view text, const std::string& name) {
         w.file = name;
         w.line = e.mark.line + 1;
         w.column = e.mark.column + 1;
-        throw_input(w, fmt::format("not valid YAML: {}", e.msg));
+        // YAML forbids tabs in indentation, and yaml-cpp then reports a confusing "end of map not
+        // found" further on: name the first tab-indented line instead.
+        int line = 1;
+        for (std::size_t i = 0; i < text.size(); ++line) {
+            std::size_t end = text.find('\n', i);
+            if (end == std::string_view::npos) end = text.size();
+            std::string_view l = text.substr(i, end - i);
+            std::size_t lead = l.find_first_not_of(" \t");
+            std::size_t tab = l.find('\t');
+            if (tab != std::string_view::npos && (lead == std::string_view::npos || tab < lead) && line <= w.line) {
+                throw_input(location{name, line, static_cast<int>(tab) + 1, ""},
+                            "not valid YAML: a tab in the indentation; expected spaces (YAML indents with spaces only)");
+            }
+            i = end + 1;
+        }
+        throw_input(w, fmt::format("not valid YAML: {}; expected YAML such as 'tip: {{material: tungsten}}' (check "
+                                   "brackets, quotes and indentation)",
+                                   e.msg));
     }
 }
 
@@ -206,11 +243,18 @@ config parse_config(std::string_view text, const std::string& name) {
 }
 
 config load_config(const std::string& path) {
+    location w;
+    w.file = path;
+    std::error_code ec;
+    if (std::filesystem::is_directory(path, ec)) throw_input(w, "this is a directory; expected a YAML file");
     std::ifstream in(path, std::ios::binary);
-    if (!in) {
-        location w;
-        w.file = path;
-        throw_input(w, "cannot open the configuration file");
+    if (!in) throw_input(w, "cannot open the configuration file; expected a readable YAML file");
+    // A configuration is a few hundred bytes. yaml-cpp builds a node tree of many times the file's
+    // size, so a file far beyond any configuration (a data file given by mistake) is refused first.
+    constexpr std::uintmax_t max_bytes = 1u << 20;
+    const std::uintmax_t size = std::filesystem::file_size(path, ec);
+    if (!ec && size > max_bytes) {
+        throw_input(w, fmt::format("the file has {} bytes; expected a configuration of at most 1 MiB", size));
     }
     std::ostringstream ss;
     ss << in.rdbuf();
@@ -242,7 +286,7 @@ material_entry find_material(const std::string& name, const location& where) {
         if (m.name == name) return m;
         names += (names.empty() ? "" : ", ") + m.name;
     }
-    throw_input(where, fmt::format("unknown material '{}'; the materials library has: {}", name, names));
+    throw_input(where, fmt::format("unknown material {}; expected one of the materials library: {}", quote_input(name), names));
 }
 
 }  // namespace tipgap

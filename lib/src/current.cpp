@@ -165,6 +165,12 @@ double simmons_current_density(const model_options& o, double s, double V) {
     double phibar = 0, width = 0;
     // Collapsed barrier: Simmons' formula has no meaning; the numerical model is used instead.
     if (!mean_barrier(b, e_emit, phibar, width)) return wkb_current_density(o, s, V);
+    // The formula is J0 [f(phibar) - f(phibar + eV)] with f(x) = x exp(-A sqrt(x)), which falls with
+    // x (so J > 0 for every V > 0) only while A sqrt(phibar) >= 2, i.e. the barrier is at least
+    // about one decay length thick. A thinner or lower barrier is outside the formula's validity
+    // (it would give a current against the bias), so the numerical model is used there too.
+    const double A = 2.0 * width * std::sqrt(2.0 * si::electron_mass) / si::hbar;
+    if (A * std::sqrt(phibar) < 2.0) return wkb_current_density(o, s, V);
     double j = simmons_intermediate(phibar, width, std::abs(eV));
     return V > 0 ? j : -j;
 }

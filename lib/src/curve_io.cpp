@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cstdint>
+#include <filesystem>
 #include <fmt/format.h>
 #include <fstream>
 #include <iterator>
@@ -51,7 +53,7 @@ double unit_factor(std::string_view unit, dimension d, std::string_view cell, co
     try {
         return parse_quantity(fmt::format("1 {}", unit), d, where);
     } catch (const error&) {
-        throw_input(where, fmt::format("unknown unit '{}' in '{}'; expected {} in {}", unit, cell, dimension_phrase(d),
+        throw_input(where, fmt::format("unknown unit {} in {}; expected {} in {}", quote_input(unit, 20), quote_input(cell), dimension_phrase(d),
                                        accepted_units(d)));
     }
 }
@@ -91,12 +93,16 @@ void parse_metadata_line(std::string_view line, int line_number, const std::stri
         case detail::number_status::empty:
             throw_input(where, fmt::format("empty cell in column '{}'; expected a number", column_name));
         case detail::number_status::not_finite:
-            throw_input(where, fmt::format("'{}' in column '{}' is not a finite number", cell, column_name));
+            throw_input(where, fmt::format("{} in column '{}' is not a finite number; expected a finite value", quote_input(cell), column_name));
         case detail::number_status::out_of_range:
             throw_input(where,
-                        fmt::format("'{}' in column '{}' is outside the range of a double", cell, column_name));
+                        fmt::format("{} in column '{}' is outside the range of a double; expected a magnitude of 0 or "
+                                    "between about 1e-308 and 1e308",
+                                    quote_input(cell), column_name));
         default:
-            throw_input(where, fmt::format("'{}' in column '{}' is not a number", cell, column_name));
+            throw_input(where, fmt::format("{} in column '{}' is not a number; expected a plain number such as 0.25 (the unit "
+                                           "goes in the header)",
+                                           quote_input(cell), column_name));
     }
 }
 
@@ -296,9 +302,9 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
             } else if (spec.role == column_role::direction) {
                 if (!from_string(cell, dir)) {
                     throw_input(location{file, row_line, column, ""},
-                                fmt::format("'{}' in column 'direction' is not a sweep direction; expected "
+                                fmt::format("{} in column 'direction' is not a sweep direction; expected "
                                             "approach or retract",
-                                            cell));
+                                            quote_input(cell)));
                 }
             }
         }
@@ -335,9 +341,25 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
 }
 
 measured_curve read_curve_csv(const std::string& path) {
+    std::error_code ec;
+    if (std::filesystem::is_directory(path, ec)) {
+        throw_input(location{path, 0, 0, ""}, "this is a directory; expected a curve file (CSV)");
+    }
     std::ifstream in(path, std::ios::binary);
     if (!in) throw_input(location{path, 0, 0, ""}, "cannot open the file for reading");
-    std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    // One read of the whole file into a buffer of its size: a character-by-character copy takes
+    // seconds and twice the memory on a file with a gigabyte-long line.
+    std::string text;
+    const std::uintmax_t size = std::filesystem::file_size(path, ec);
+    if (!ec) {
+        text.resize(static_cast<std::size_t>(size));
+        in.read(text.data(), static_cast<std::streamsize>(size));
+        text.resize(static_cast<std::size_t>(in.gcount()));
+        // A file that grew while being read (or a pipe) still gets read to its end.
+        text.append(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
+    } else {
+        text.assign(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
+    }
     return parse_curve_csv(text, path);
 }
 

@@ -18,6 +18,27 @@ std::string format_location(const location& w) {
     return out;
 }
 
+std::string quote_input(std::string_view text, std::size_t max_bytes) {
+    bool cut = text.size() > max_bytes;
+    if (cut) {
+        std::size_t n = max_bytes;
+        // Do not split a UTF-8 sequence: back up over continuation bytes (10xxxxxx).
+        while (n > 0 && (static_cast<unsigned char>(text[n]) & 0xC0) == 0x80) --n;
+        text = text.substr(0, n);
+    }
+    std::string out = "'";
+    for (char ch : text) {
+        auto c = static_cast<unsigned char>(ch);
+        if (c < 0x20 || c == 0x7F) {
+            out += fmt::format("\\x{:02X}", c);
+        } else {
+            out += ch;
+        }
+    }
+    out += cut ? "...'" : "'";
+    return out;
+}
+
 error::error(error_kind kind, const location& where, const std::string& what)
     : std::runtime_error(format_location(where) + what), kind_(kind), where_(where), detail_(what) {}
 

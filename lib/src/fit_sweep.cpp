@@ -44,20 +44,31 @@ const char* to_string(contact_kind k) {
 const char* to_string(fit_status s) { return s == fit_status::converged ? "converged" : "not_converged"; }
 
 void fit_options::validate() const {
-    auto bad = [](const char* key, const std::string& what) { throw_input(location{"", 0, 0, key}, what); };
-    if (!(noise_floor_A >= 0.0) || !std::isfinite(noise_floor_A)) bad("noise_floor_A", "must be >= 0 (0 = estimate)");
-    if (!(saturation_A >= 0.0) || !std::isfinite(saturation_A)) bad("saturation_A", "must be >= 0 (0 = detect)");
+    // "<key>: <value> is out of range; expected <range>", the format of every range error.
+    auto bad = [](const char* key, const std::string& value, const std::string& expected) {
+        throw_input(location{"", 0, 0, key}, fmt::format("{} is out of range; expected {}", value, expected));
+    };
+    auto amps = [](double v) { return fmt::format("{:g} A", v); };
+    if (!(noise_floor_A >= 0.0) || !std::isfinite(noise_floor_A))
+        bad("noise_floor_A", amps(noise_floor_A), "a current >= 0 (0 = estimate)");
+    if (!(saturation_A >= 0.0) || !std::isfinite(saturation_A))
+        bad("saturation_A", amps(saturation_A), "a current >= 0 (0 = detect)");
     if (!(current_noise_A >= 0.0) || !std::isfinite(current_noise_A))
-        bad("current_noise_A", "must be >= 0 (0 = estimate)");
+        bad("current_noise_A", amps(current_noise_A), "a current >= 0 (0 = estimate)");
     if (!(calibration_uncertainty >= 0.0 && calibration_uncertainty < 0.5))
-        bad("calibration_uncertainty", "must be in [0, 0.5) (a relative uncertainty, e.g. 0.02)");
-    if (!(confidence_level > 0.0 && confidence_level < 1.0)) bad("confidence_level", "must be in (0, 1)");
-    if (window_points != 0 && window_points < 4) bad("window_points", "must be >= 4 (or 0 for the default)");
-    if (!(window_m >= 0.0) || !std::isfinite(window_m)) bad("window_m", "must be >= 0");
-    if (!(contact_distance_m > 0.0) || !std::isfinite(contact_distance_m)) bad("contact_distance_m", "must be > 0");
-    if (max_evaluations < 10) bad("max_evaluations", "must be >= 10");
+        bad("calibration_uncertainty", fmt::format("{:g}", calibration_uncertainty),
+            "a relative uncertainty in [0, 0.5), e.g. 0.02");
+    if (!(confidence_level > 0.0 && confidence_level < 1.0))
+        bad("confidence_level", fmt::format("{:g}", confidence_level), "a level in (0, 1), e.g. 0.95");
+    if (window_points != 0 && window_points < 4)
+        bad("window_points", fmt::format("{} points", window_points), "at least 4 points (or 0 for the default)");
+    if (!(window_m >= 0.0) || !std::isfinite(window_m))
+        bad("window_m", fmt::format("{:g} nm", window_m / 1e-9), "a length >= 0");
+    if (!(contact_distance_m > 0.0) || !std::isfinite(contact_distance_m))
+        bad("contact_distance_m", fmt::format("{:g} nm", contact_distance_m / 1e-9), "a length > 0");
+    if (max_evaluations < 10) bad("max_evaluations", fmt::format("{}", max_evaluations), "at least 10");
     if (saturation_A > 0.0 && noise_floor_A > 0.0 && saturation_A <= noise_floor_A)
-        bad("saturation_A", "must be above the noise floor");
+        bad("saturation_A", amps(saturation_A), fmt::format("a saturation above the noise floor of {}", amps(noise_floor_A)));
 }
 
 double apparent_barrier_from_decay(double decay_constant_per_m) {
@@ -130,6 +141,9 @@ std::vector<profile_point> local_profile(const std::vector<double>& z, const std
         std::vector<std::size_t> idx(used.begin() + static_cast<std::ptrdiff_t>(begin),
                                      used.begin() + static_cast<std::ptrdiff_t>(end));
         std::vector<double> ww(w.begin() + static_cast<std::ptrdiff_t>(begin), w.begin() + static_cast<std::ptrdiff_t>(end));
+        // A window whose points share one z (repeated piezo steps) has no slope: skip it rather
+        // than report an infinite one.
+        if (!(z[idx.back()] > z[idx.front()])) return;
         const line_fit l = fit_ln(z, a, idx, ww);
         profile_point p;
         double zs = 0.0;
@@ -233,6 +247,13 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
                                        used.size(), n, detail::format_current(floor),
                                        sat > 0.0 ? " and below the saturation at " : "",
                                        sat > 0.0 ? detail::format_current(sat) : ""));
+    }
+    // z is sorted, so the used points span [z[used.front()], z[used.back()]]. Without a spread in z
+    // the slope of ln|I| is undefined (the least-squares problem is singular).
+    if (!(z[used.back()] > z[used.front()])) {
+        throw_input(where, fmt::format("all {} points used for the fit have the same z ({:g} nm); expected a curve "
+                                       "over a range of z",
+                                       used.size(), z[used.front()] / 1e-9));
     }
     std::vector<double> w(used.size());
     for (std::size_t k = 0; k < used.size(); ++k) w[k] = (a[used[k]] / sigma) * (a[used[k]] / sigma);

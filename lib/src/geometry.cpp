@@ -2,6 +2,7 @@
 
 #include <boost/math/quadrature/gauss_kronrod.hpp>
 #include <cmath>
+#include <fmt/format.h>
 #include <numbers>
 
 #include "tipgap/constants.hpp"
@@ -30,16 +31,21 @@ bool from_string(const std::string& s, geometry_kind& out) {
 }
 
 void geometry_options::validate() const {
-    auto bad = [](const char* key, const char* why) {
+    auto bad = [](const char* key, double value_shown, const char* unit, const char* range) {
         location w;
         w.key = key;
-        throw_input(w, why);
+        std::string shown = std::isfinite(value_shown) ? fmt::format("{:g} {}", value_shown, unit)
+                                                       : std::string("a non-finite value");
+        throw_input(w, fmt::format("{} is out of range; expected {}", shown, range));
     };
-    if (!(std::isfinite(area_m2) && area_m2 > 0)) bad("geometry.area", "must be a positive area");
+    // The upper bound keeps I = J * area finite (J stays below ~1e13 A/m^2 inside the model's
+    // domain) and is far beyond any tunnel junction.
+    if (!(std::isfinite(area_m2) && area_m2 > 0 && area_m2 <= 1e-6))
+        bad("geometry.area", area_m2, "m^2", "an area in (0, 1e-6 m^2]");
     if (!(std::isfinite(apex_radius_m) && apex_radius_m > 0 && apex_radius_m <= 1e-5))
-        bad("geometry.apex_radius", "must be in (0, 10 um]");
+        bad("geometry.apex_radius", apex_radius_m * 1e9, "nm", "a radius in (0, 10 um]");
     if (!(std::isfinite(contact_distance_m) && contact_distance_m > 0 && contact_distance_m < 1e-9))
-        bad("geometry.contact_distance", "must be in (0, 1 nm)");
+        bad("geometry.contact_distance", contact_distance_m * 1e9, "nm", "a distance in (0, 1 nm)");
 }
 
 double contact_anchored_area(const model_options& model, const geometry_options& g) {

@@ -45,33 +45,39 @@ bool from_string(const std::string& s, method_kind& out) {
 }
 
 namespace {
-void require(bool ok, const char* key, const std::string& why) {
-    if (!ok) {
-        location w;
-        w.key = key;
-        throw_input(w, why);
-    }
+// Throws "<key>: <value> <unit> is out of range; expected <range>" when !ok. `value` is shown in
+// the unit of the range so the user sees the number they wrote.
+void require(bool ok, const char* key, double value, const char* unit, const std::string& range) {
+    if (ok) return;
+    location w;
+    w.key = key;
+    std::string shown = std::isfinite(value) ? fmt::format("{:g}{}{}", value, *unit ? " " : "", unit)
+                                             : std::string("a non-finite value");
+    throw_input(w, fmt::format("{} is out of range; expected {}", shown, range));
 }
 }  // namespace
 
 void model_options::validate() const {
     constexpr double eV = 1.602176634e-19;
-    auto finite = [](double v) { return std::isfinite(v); };
-    require(finite(tip.work_function_J) && tip.work_function_J > 0 && tip.work_function_J <= 20 * eV,
-            "tip.work_function", "must be in (0, 20] eV");
-    require(finite(sample.work_function_J) && sample.work_function_J > 0 && sample.work_function_J <= 20 * eV,
-            "sample.work_function", "must be in (0, 20] eV");
-    require(finite(tip.fermi_energy_J) && tip.fermi_energy_J > 0 && tip.fermi_energy_J <= 50 * eV,
-            "tip.fermi_energy", "must be in (0, 50] eV");
-    require(finite(sample.fermi_energy_J) && sample.fermi_energy_J > 0 && sample.fermi_energy_J <= 50 * eV,
-            "sample.fermi_energy", "must be in (0, 50] eV");
-    require(finite(relative_permittivity) && relative_permittivity >= 1.0 && relative_permittivity <= 1000.0,
-            "barrier.relative_permittivity", "must be in [1, 1000] (1 for vacuum)");
-    require(finite(temperature_K) && temperature_K >= 0.0 && temperature_K <= 2000.0, "temperature",
-            "must be in [0, 2000] K");
-    require(finite(rel_tol) && rel_tol >= 1e-12 && rel_tol <= 1e-2, "tolerance", "must be in [1e-12, 1e-2]");
-    require(finite(bias_limit_V) && bias_limit_V > 0 && bias_limit_V <= 100.0, "bias_limit",
-            "must be in (0, 100] V");
+    auto in = [](double v, double lo, double hi, bool lo_open) {
+        return std::isfinite(v) && (lo_open ? v > lo : v >= lo) && v <= hi;
+    };
+    // A work function <= 0 has no barrier to tunnel through; above 20 eV no metal exists.
+    require(in(tip.work_function_J, 0, 20 * eV, true), "tip.work_function", tip.work_function_J / eV, "eV",
+            "a work function in (0, 20] eV");
+    require(in(sample.work_function_J, 0, 20 * eV, true), "sample.work_function", sample.work_function_J / eV, "eV",
+            "a work function in (0, 20] eV");
+    require(in(tip.fermi_energy_J, 0, 50 * eV, true), "tip.fermi_energy", tip.fermi_energy_J / eV, "eV",
+            "a Fermi energy in (0, 50] eV");
+    require(in(sample.fermi_energy_J, 0, 50 * eV, true), "sample.fermi_energy", sample.fermi_energy_J / eV, "eV",
+            "a Fermi energy in (0, 50] eV");
+    // K < 1 would make the image attraction stronger than in vacuum: no dielectric does that.
+    require(in(relative_permittivity, 1.0, 1000.0, false), "barrier.relative_permittivity", relative_permittivity, "",
+            "a relative permittivity in [1, 1000] (1 for vacuum)");
+    require(in(temperature_K, 0.0, 2000.0, false), "temperature", temperature_K, "K",
+            "a temperature in [0, 2000] K");
+    require(in(rel_tol, 1e-12, 1e-2, false), "tolerance", rel_tol, "", "a relative tolerance in [1e-12, 1e-2]");
+    require(in(bias_limit_V, 0.0, 100.0, true), "bias_limit", bias_limit_V, "V", "a bias limit in (0, 100] V");
 }
 
 }  // namespace tipgap

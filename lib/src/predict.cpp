@@ -20,16 +20,18 @@ void validate_operating_point(const model_options& m, double gap, double bias, c
     location w;
     if (!(std::isfinite(gap) && gap > 0.0)) {
         w.key = gap_key;
-        throw_input(w, fmt::format("the gap must be positive (got {:g} nm)", gap * 1e9));
+        throw_input(w, fmt::format("gap {:g} nm is not positive; expected a gap in (0, 100] nm", gap * 1e9));
     }
     if (gap > 100e-9) {
         w.key = gap_key;
-        throw_input(w, fmt::format("gap {:g} nm is beyond the model's range (at most 100 nm)", gap * 1e9));
+        throw_input(w, fmt::format("gap {:g} nm is beyond the model's range; expected a gap in (0, 100] nm",
+                                   gap * 1e9));
     }
     if (!(std::isfinite(bias) && std::abs(bias) <= m.bias_limit_V)) {
         w.key = bias_key;
-        throw_input(w, fmt::format("|bias| {:g} V exceeds the configured bias_limit of {:g} V", std::abs(bias),
-                                   m.bias_limit_V));
+        throw_input(w, fmt::format("|bias| {:g} V exceeds the configured bias_limit; expected |bias| <= {:g} V "
+                                   "(raise bias_limit in the configuration to go further)",
+                                   std::abs(bias), m.bias_limit_V));
     }
 }
 

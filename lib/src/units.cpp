@@ -113,6 +113,7 @@ const char* dimension_name(dimension d) {
 const char* dimension_phrase(dimension d) {
     switch (d) {
         case dimension::energy: return "an energy";
+        case dimension::area: return "an area";
         case dimension::dimensionless: return "a plain number";
         default: break;
     }
@@ -141,10 +142,17 @@ double parse_number(std::string_view text, const location& where) {
     if (!s.empty() && s.front() == '+') s.remove_prefix(1);
     double v = 0.0;
     auto [ptr, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
-    if (s.empty() || ec != std::errc() || ptr != s.data() + s.size()) {
-        throw_input(where, fmt::format("'{}' is not a number", std::string(trim(text))));
+    if (!s.empty() && ec == std::errc::result_out_of_range && ptr == s.data() + s.size()) {
+        throw_input(where, fmt::format("{} is outside the range of a double-precision number; expected a "
+                                       "magnitude of 0 or between about 1e-308 and 1e308",
+                                       quote_input(trim(text))));
     }
-    if (!std::isfinite(v)) throw_input(where, fmt::format("'{}' is not a finite number", std::string(trim(text))));
+    if (s.empty() || ec != std::errc() || ptr != s.data() + s.size()) {
+        throw_input(where, fmt::format("{} is not a number", quote_input(trim(text))));
+    }
+    if (!std::isfinite(v)) {
+        throw_input(where, fmt::format("{} is not a finite number; expected a finite value", quote_input(trim(text))));
+    }
     return v;
 }
 
@@ -156,8 +164,8 @@ double parse_quantity(std::string_view text, dimension d, const location& where)
     std::string_view number, unit;
     split_number(s, number, unit);
     if (number.empty()) {
-        throw_input(where, fmt::format("'{}' does not start with a number; expected {} such as '{}'",
-                                       std::string(s), dimension_phrase(d),
+        throw_input(where, fmt::format("{} does not start with a number; expected {} such as '{}'",
+                                       quote_input(s), dimension_phrase(d),
                                        d == dimension::length ? "0.6 nm" : d == dimension::voltage ? "100 mV"
                                        : d == dimension::current ? "1 nA" : d == dimension::energy ? "4.5 eV"
                                        : d == dimension::temperature ? "4.2 K" : d == dimension::area ? "1 nm^2"
@@ -165,15 +173,23 @@ double parse_quantity(std::string_view text, dimension d, const location& where)
     }
     double v = parse_number(number, where);
     if (unit.empty() && d != dimension::dimensionless) {
-        throw_input(where, fmt::format("'{}' has no unit; expected {} in {}", std::string(s), dimension_phrase(d),
+        throw_input(where, fmt::format("{} has no unit; expected {} in {}", quote_input(s), dimension_phrase(d),
                                        accepted_units(d)));
     }
     double factor = 1.0;
-    if (!unit_factor(d, unit, factor)) {
-        throw_input(where, fmt::format("unknown unit '{}' in '{}'; expected {} in {}", std::string(unit),
-                                       std::string(s), dimension_phrase(d), accepted_units(d)));
+    if (d == dimension::dimensionless && !unit.empty()) {
+        throw_input(where, fmt::format("{} has a unit; expected a plain number without a unit", quote_input(s)));
     }
-    return v * factor;
+    if (!unit_factor(d, unit, factor)) {
+        throw_input(where, fmt::format("unknown unit {} in {}; expected {} in {}", quote_input(unit, 20),
+                                       quote_input(s), dimension_phrase(d), accepted_units(d)));
+    }
+    // "1e308 kV" is a finite number times a finite factor, but not a finite voltage.
+    const double si_value = v * factor;
+    if (!std::isfinite(si_value)) {
+        throw_input(where, fmt::format("{} is too large; expected a finite {}", quote_input(s), dimension_name(d)));
+    }
+    return si_value;
 }
 
 uncertain parse_uncertain(std::string_view text, dimension d, const location& where) {
@@ -187,6 +203,10 @@ uncertain parse_uncertain(std::string_view text, dimension d, const location& wh
     if (pm == std::string_view::npos) return {parse_quantity(s, d, where), 0.0};
     std::string_view left = trim(s.substr(0, pm));
     std::string_view right = trim(s.substr(pm + pm_len));
+    if (left.empty() || right.empty()) {
+        throw_input(where, fmt::format("{} needs a value on both sides of the '±'; expected {} such as '4.5 ± 0.1 eV'",
+                                       quote_input(s), dimension_phrase(d)));
+    }
     std::string_view rnum, runit;
     split_number(right, rnum, runit);
     std::string_view lnum, lunit;
@@ -196,7 +216,10 @@ uncertain parse_uncertain(std::string_view text, dimension d, const location& wh
     uncertain u;
     u.value = parse_quantity(std::string(lnum) + " " + unit_text, d, where);
     u.sigma = parse_quantity(std::string(rnum) + " " + std::string(runit.empty() ? lunit : runit), d, where);
-    if (u.sigma < 0) throw_input(where, fmt::format("uncertainty in '{}' must not be negative", std::string(s)));
+    if (u.sigma < 0) {
+        throw_input(where, fmt::format("the uncertainty in {} is negative; expected a standard uncertainty >= 0",
+                                       quote_input(s)));
+    }
     return u;
 }
 

@@ -87,7 +87,7 @@ set +e
 msg=$("$TIPGAP" fit "$tmp/bad.csv" 2>&1 >/dev/null); code=$?
 set -e
 [ "$code" -eq 3 ] || fail "bad cell: exit $code"
-[ "$msg" = "tipgap: error: $tmp/bad.csv:3:5: 'abc' in column 'current' is not a number" ] || fail "bad cell: $msg"
+[ "$msg" = "tipgap: error: $tmp/bad.csv:3:5: 'abc' in column 'current' is not a number; expected a plain number such as 0.25 (the unit goes in the header)" ] || fail "bad cell: $msg"
 set +e
 msg=$("$TIPGAP" fit "$tmp/clean.csv" --noise-floor 2 2>&1 >/dev/null); code=$?
 set -e
@@ -98,6 +98,6 @@ set +e
 msg=$("$TIPGAP" fit "$tmp/clean.csv" --calibration-uncertainty 0.7 2>&1 >/dev/null); code=$?
 set -e
 [ "$code" -eq 2 ] || fail "calibration: exit $code"
-[ "$msg" = "tipgap: usage error: --calibration-uncertainty: must be in [0, 0.5) (a relative uncertainty, e.g. 0.02)" ] \
+[ "$msg" = "tipgap: usage error: --calibration-uncertainty: 0.7 is out of range; expected a relative uncertainty in [0, 0.5), e.g. 0.02" ] \
   || fail "calibration: $msg"
 echo "fit CLI: all checks passed"

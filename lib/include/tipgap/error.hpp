@@ -1,7 +1,9 @@
 #pragma once
 // One exception type for every user-facing error: what was wrong, where, what was expected.
 #include <stdexcept>
+#include <cstddef>
 #include <string>
+#include <string_view>
 
 namespace tipgap {
 
@@ -37,6 +39,11 @@ private:
     location where_;
     std::string detail_;
 };
+
+// Quotes text taken from the user's input for a message: 'text', cut after `max_bytes` bytes (at a
+// UTF-8 character boundary) with "..." and with control bytes shown as \xNN, so that a message
+// stays one short line whatever the input holds (a 1 GB line, a binary file, a terminal escape).
+std::string quote_input(std::string_view text, std::size_t max_bytes = 60);
 
 // Shorthands.
 [[noreturn]] void throw_input(const location& where, const std::string& what);

@@ -11,7 +11,9 @@ enum class image_kind {
 };
 enum class method_kind {
     wkb,      // numerical WKB transmission and Tsu-Esaki energy integral
-    simmons,  // Simmons 1963 intermediate-voltage closed form over the same barrier
+    simmons,  // Simmons 1963 intermediate-voltage closed form over the same barrier; where the
+              // formula is invalid (collapsed barrier, or thinner than about one decay length,
+              // A sqrt(phibar) < 2) the numerical WKB result is used instead
 };
 
 // Enum <-> string, the one place for the names used in YAML, on the command line and in JSON.
