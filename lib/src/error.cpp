@@ -39,8 +39,27 @@ std::string quote_input(std::string_view text, std::size_t max_bytes) {
     return out;
 }
 
+namespace {
+// Control bytes (a newline inside a library's message, an escape sequence in a file name) become
+// \xNN, so that every message is one printable line.
+std::string printable(const std::string& s) {
+    std::string out;
+    out.reserve(s.size());
+    for (char ch : s) {
+        auto c = static_cast<unsigned char>(ch);
+        if (c < 0x20 || c == 0x7F) {
+            out += fmt::format("\\x{:02X}", c);
+        } else {
+            out += ch;
+        }
+    }
+    return out;
+}
+}  // namespace
+
 error::error(error_kind kind, const location& where, const std::string& what)
-    : std::runtime_error(format_location(where) + what), kind_(kind), where_(where), detail_(what) {}
+    : std::runtime_error(printable(format_location(where) + what)), kind_(kind), where_(where),
+      detail_(printable(what)) {}
 
 void throw_input(const location& where, const std::string& what) {
     throw error(error_kind::input, where, what);

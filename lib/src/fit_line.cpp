@@ -1,8 +1,11 @@
 // Weighted straight-line least squares by SVD (no normal equations, so the accuracy does not
 // depend on the square of the condition number).
 #include <Eigen/SVD>
+#include <algorithm>
 #include <cmath>
+#include <fmt/format.h>
 
+#include "tipgap/error.hpp"
 #include "tipgap/fit.hpp"
 
 namespace tipgap {
@@ -12,7 +15,22 @@ line_fit fit_line(std::span<const double> x, std::span<const double> y, std::spa
     line_fit out;
     out.points = n;
     const bool weighted = !weights.empty();
-    auto w = [&](std::size_t i) { return weighted ? weights[i] : 1.0; };
+    // Non-finite data or weights make the SVD undefined (Eigen's JacobiSVD can then read out of
+    // bounds), so they are refused here whatever the caller did. Weights are used relative to the
+    // largest: the covariance is scaled by the residual variance, so a common factor drops out,
+    // and the rescaling keeps sqrt(w) * y away from overflow.
+    double w_max = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double wi = weighted ? weights[i] : 1.0;
+        if (!std::isfinite(x[i]) || !std::isfinite(y[i]) || !std::isfinite(wi) || wi < 0.0) {
+            throw_input(location{}, fmt::format("point {} of a straight-line fit is not finite (x {:g}, y {:g}, weight "
+                                                "{:g}); expected finite values and weights >= 0",
+                                                i + 1, x[i], y[i], wi));
+        }
+        w_max = std::max(w_max, wi);
+    }
+    if (!(w_max > 0.0)) throw_input(location{}, "every weight of a straight-line fit is 0; expected a positive weight");
+    auto w = [&](std::size_t i) { return (weighted ? weights[i] : 1.0) / w_max; };
 
     // Centre and scale x so that the two columns of the design matrix are comparable: with z in
     // metres the raw columns differ by ~1e9.
@@ -65,7 +83,7 @@ line_fit fit_line(std::span<const double> x, std::span<const double> y, std::spa
     out.intercept_stderr = std::sqrt(cov(0, 0));
     out.slope_stderr = std::sqrt(cov(1, 1));
     out.covariance = cov(0, 1);
-    out.residual_std = std::sqrt(s2);
+    out.residual_std = std::sqrt(s2) * std::sqrt(w_max);  // in the caller's weights, not the rescaled ones
     out.r_squared = sst_w > 0.0 ? 1.0 - ssr_w / sst_w : 1.0;
     out.residual_rms = std::sqrt(ssr / static_cast<double>(n));
     return out;

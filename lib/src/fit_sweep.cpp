@@ -255,25 +255,50 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
                                        "over a range of z",
                                        used.size(), z[used.front()] / 1e-9));
     }
+    // Weights (I/σ_I)², taken relative to the largest: fit_line scales the covariance by the
+    // residual variance, so only ratios of weights matter, and ratios cannot overflow where
+    // (I/σ_I)² can (a wild fitted line gives exp(...) near 1e308).
+    auto relative_squares = [](std::vector<double> v) {
+        const double ref = v.empty() ? 1.0 : *std::max_element(v.begin(), v.end());
+        for (double& x : v) x = (x / ref) * (x / ref);
+        return v;
+    };
     std::vector<double> w(used.size());
-    for (std::size_t k = 0; k < used.size(); ++k) w[k] = (a[used[k]] / sigma) * (a[used[k]] / sigma);
+    for (std::size_t k = 0; k < used.size(); ++k) w[k] = a[used[k]];
+    w = relative_squares(std::move(w));
     line_fit line = fit_ln(z, a, used, w);
     for (int pass = 1; pass < linear_passes; ++pass) {
         std::vector<std::size_t> next;
         std::vector<double> next_w;
         for (std::size_t i = 0; i < n; ++i) {
             const double fitted = std::exp(line.intercept + line.slope * z[i]);
+            // An overflowing extrapolation of the line says nothing about the point's weight.
+            if (!std::isfinite(fitted)) continue;
             if (eligible(i) && fitted >= floor && a[i] >= observed_floor_fraction * floor) {
                 next.push_back(i);
-                next_w.push_back((fitted / sigma) * (fitted / sigma));
+                next_w.push_back(fitted);
             }
         }
+        next_w = relative_squares(std::move(next_w));
         if (next.size() < 3) break;
         const bool same = next == used;
+        // A wild line (an outlier far out in z) can give weights that leave fewer than two
+        // distinct z with any weight: the reweighted problem is then singular and its standard
+        // errors NaN. Keep the last well-posed fit instead.
+        const line_fit candidate = fit_ln(z, a, next, next_w);
+        if (!std::isfinite(candidate.slope) || !std::isfinite(candidate.slope_stderr) ||
+            !std::isfinite(candidate.intercept) || !std::isfinite(candidate.intercept_stderr)) {
+            break;
+        }
         used = std::move(next);
         w = std::move(next_w);
-        line = fit_ln(z, a, used, w);
+        line = candidate;
         if (same) break;
+    }
+    if (!std::isfinite(line.slope) || !std::isfinite(line.slope_stderr)) {
+        throw_input(where, fmt::format("the straight-line fit of ln|I| against z over {} points is singular; expected "
+                                       "points that spread over z with comparable currents",
+                                       used.size()));
     }
     r.z_ref_m = z[used.front()];
 
