@@ -9,4 +9,7 @@ void add_predict(CLI::App& app);
 // tipgap fit: decay constant and apparent barrier height of measured I(z) curves (cmd_fit.cpp).
 void add_fit(CLI::App& app);
 
+// tipgap synth: synthetic curves and grids with their ground truth (cmd_synth.cpp).
+void add_synth(CLI::App& app);
+
 }  // namespace tipgap::cli

@@ -255,6 +255,8 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         if (same) break;
     }
     r.z_ref_m = z[used.front()];
+    r.line = line;
+    for (std::size_t i : used) r.used_rows.push_back(order[i]);
 
     if (opt.model == fit_model::linear) {
         r.iterations = 1;
@@ -282,8 +284,10 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
     } else {
         std::vector<double> zz, yy;
         double sign_sum = 0.0;
+        r.used_rows.clear();  // the offset model uses every point outside contact and saturation
         for (std::size_t i = 0; i < n; ++i) {
             if (i >= first && (sat <= 0.0 || a[i] < sat)) {
+                r.used_rows.push_back(order[i]);
                 zz.push_back(z[i]);
                 yy.push_back(current[i]);
                 sign_sum += current[i];
