@@ -216,6 +216,16 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
 
     r.contact = detail::detect_contact(z, a, floor, bias_V, opt.contact_distance_m);
     const std::size_t first = r.contact.points_in_contact;
+    // A conductance plateau is flat too: a "flat top" that lies wholly inside the contact is the
+    // contact, not the amplifier.
+    if (r.saturation_detected) {
+        bool any = false;
+        for (std::size_t i = first; i < n && !any; ++i) any = a[i] >= sat;
+        if (!any) {
+            r.saturation_detected = false;
+            r.saturation_A = sat = 0.0;
+        }
+    }
     auto eligible = [&](std::size_t i) { return i >= first && (sat <= 0.0 || a[i] < sat) && a[i] > 0.0; };
     for (std::size_t i = first; i < n; ++i) {
         if (sat > 0.0 && a[i] >= sat) ++r.points_saturated;

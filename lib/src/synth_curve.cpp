@@ -157,8 +157,9 @@ synth_curve synthesise_curve(const config& c, const synth_options& o) {
         for (std::size_t m = st.first_row; m < st.first_row + st.rows; ++m) {
             const synth_sample& p = out.samples[m];
             z.push_back(p.z_m);
-            i_drift.push_back(p.model_current_A);
-            use.push_back(!p.in_contact && detail::usable_current(std::abs(p.model_current_A), o));
+            // The baseline is part of what the instrument records: a linear fit of ln|I| sees it.
+            i_drift.push_back(p.model_current_A + o.baseline_A);
+            use.push_back(!p.in_contact && detail::usable_current(std::abs(i_drift.back()), o));
             if (use.back()) ++st.usable_points;
         }
         for (std::size_t m = 0; m < z.size(); ++m) {
@@ -166,6 +167,8 @@ synth_curve synthesise_curve(const config& c, const synth_options& o) {
             i_nominal.push_back(o.drift_m == 0.0 ? i_drift[m]
                                                  : total_current(c.model, c.geometry, z[m] + t.gap_at_z0_m, o.bias_V));
         }
+        // Expected: with drift and baseline, as a noise-free instrument would record the current.
+        // Model: the same points, drift-free and without the baseline, the physics alone.
         st.decay_constant_expected_per_m = detail::expected_decay(z, i_drift, use);
         st.decay_constant_model_per_m = detail::expected_decay(z, i_nominal, use);
         st.apparent_barrier_expected_J = apparent_barrier_from_decay(st.decay_constant_expected_per_m);

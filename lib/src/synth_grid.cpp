@@ -63,9 +63,10 @@ region_shape make_region(const config& c, const synth_options& o, const std::vec
     std::vector<bool> use(gaps.size());
     r.current_A.resize(gaps.size());
     for (std::size_t k = 0; k < gaps.size(); ++k) {
-        model[k] = total_current(c.model, c.geometry, gaps[k], o.bias_V);
+        const double im = total_current(c.model, c.geometry, gaps[k], o.bias_V);
         const bool contact = o.jump_gap_m > 0.0 && gaps[k] < o.jump_gap_m;
-        r.current_A[k] = contact ? plateau_A : model[k];
+        r.current_A[k] = contact ? plateau_A : im;
+        model[k] = im + o.baseline_A;  // as recorded without noise (see synth_sweep_truth)
         use[k] = !contact && detail::usable_current(std::abs(model[k]), o);
     }
     r.truth.decay_constant_expected_per_m = detail::expected_decay(gaps, model, use);

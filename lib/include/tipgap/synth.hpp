@@ -53,9 +53,12 @@ struct synth_options {
     void validate(const model_options& model) const;
 };
 
-// What an ideal linear fit of ln|I| would see on one sweep: the noise-free model current (with
-// the drift, no noise, no clipping) fitted over the points the fitter can use (|I_m| above the
-// noise floor |baseline| + 3σ, below the saturation, outside contact), weighted by (I_m/σ)².
+// What an ideal linear fit of ln|I| would see on one sweep: the noise-free recorded current
+// I_m + baseline (with the drift, no noise, no clipping) fitted over the points the fitter can use
+// (|I_m + baseline| above the noise floor |baseline| + 3σ, below the saturation, outside contact),
+// weighted by its square. `model` is the same fit drift-free and without the baseline: the
+// physics alone; `expected` adds the instrument's systematic effects (drift, baseline), which a
+// linear fit does not remove.
 struct synth_sweep_truth {
     sweep_direction direction = sweep_direction::retract;
     std::size_t first_row = 0, rows = 0;
