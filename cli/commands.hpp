@@ -4,6 +4,6 @@
 
 namespace tipgap::cli {
 
-// (subcommands are declared here as they land)
+void add_predict(CLI::App& app);
 
 }  // namespace tipgap::cli

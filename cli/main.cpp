@@ -12,6 +12,7 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
+    tipgap::cli::add_predict(app);
 
     try {
         app.parse(argc, argv);

@@ -1,0 +1,116 @@
+// tipgap predict: the forward model at one point, a sweep or a (gap, bias) grid.
+#include <fmt/format.h>
+#include <memory>
+
+#include "commands.hpp"
+#include "output.hpp"
+#include "tipgap/constants.hpp"
+#include "tipgap/predict.hpp"
+#include "tipgap/sweep.hpp"
+
+namespace tipgap::cli {
+namespace {
+
+struct predict_args {
+    std::string config_path, gap, bias, output;
+    int points = 11;
+    int threads = 0;
+    output_format format = output_format::table;
+};
+
+nlohmann::json point_json(const prediction& p) {
+    const double eV = si::electron_volt;
+    const auto& q = p.q;
+    double kappa_nm = q.decay_constant_per_m * 1e-9;
+    return {{"gap_nm", q.gap_m * 1e9},
+            {"bias_V", q.bias_V},
+            {"temperature_K", q.temperature_K},
+            {"current_density_A_per_m2", q.current_density_A_per_m2},
+            {"current_A", p.current_A},
+            {"conductance_S", p.conductance_S},
+            {"conductance_G0", p.conductance_G0},
+            {"differential_conductance_density_S_per_m2", q.differential_conductance_density_S_per_m2},
+            {"decay_constant_per_nm", kappa_nm},
+            {"nm_per_decade", kappa_nm > 0 ? std::log(10.0) / (2.0 * kappa_nm) : 0.0},
+            {"apparent_barrier_eV", q.apparent_barrier_J / eV},
+            {"barrier_top_eV", q.barrier_top_J / eV},
+            {"barrier_width_nm", q.barrier_width_m * 1e9},
+            {"regime", to_string(q.kind)},
+            {"warnings", p.warnings}};
+}
+
+void run(const predict_args& a) {
+    config c = load_config_or_default(a.config_path);
+    auto gaps = parse_sweep(a.gap, dimension::length, a.points, spacing::linear, "--gap");
+    auto biases = parse_sweep(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
+    std::vector<std::pair<double, double>> pts;
+    for (double V : biases)
+        for (double s : gaps) {
+            validate_operating_point(c.model, s, V, "--gap", "--bias");
+            pts.emplace_back(s, V);
+        }
+    auto results = predict_points(c, pts, a.threads);
+
+    std::size_t shown = 0, warned = 0;
+    for (const auto& r : results) {
+        if (r.warnings.empty()) continue;
+        ++warned;
+        if (shown++ < 3) print_warnings(r.warnings, fmt::format("gap {:.4g} nm, bias {:.4g} V", r.q.gap_m * 1e9, r.q.bias_V));
+    }
+    if (warned > 3) fmt::print(stderr, "tipgap: warning: ... and {} more points with warnings (see the output)\n", warned - 3);
+
+    std::string text;
+    if (a.format == output_format::json) {
+        nlohmann::json j;
+        j["command"] = "predict";
+        j["config"] = config_json(c);
+        j["points"] = nlohmann::json::array();
+        for (const auto& r : results) j["points"].push_back(point_json(r));
+        text = j.dump(2) + "\n";
+    } else if (a.format == output_format::csv) {
+        text = csv_line({"gap_nm", "bias_V", "temperature_K", "current_density_A_per_m2", "current_A", "conductance_S",
+                         "conductance_G0", "decay_constant_per_nm", "nm_per_decade", "apparent_barrier_eV",
+                         "barrier_top_eV", "barrier_width_nm", "regime"});
+        for (const auto& r : results) {
+            auto j = point_json(r);
+            text += csv_line({full(j["gap_nm"]), full(j["bias_V"]), full(j["temperature_K"]),
+                              full(j["current_density_A_per_m2"]), full(j["current_A"]), full(j["conductance_S"]),
+                              full(j["conductance_G0"]), full(j["decay_constant_per_nm"]), full(j["nm_per_decade"]),
+                              full(j["apparent_barrier_eV"]), full(j["barrier_top_eV"]), full(j["barrier_width_nm"]),
+                              j["regime"].get<std::string>()});
+        }
+    } else {
+        text_table t;
+        t.headers = {"gap [nm]", "bias [V]", "J [A/m²]", "I [A]", "G [G0]", "κ [1/nm]", "nm/decade", "φ_ap [eV]",
+                     "top [eV]", "regime"};
+        for (const auto& r : results) {
+            auto j = point_json(r);
+            t.rows.push_back({rounded(j["gap_nm"]), rounded(j["bias_V"]), rounded(j["current_density_A_per_m2"]),
+                              rounded(j["current_A"]), rounded(j["conductance_G0"]),
+                              rounded(j["decay_constant_per_nm"]), rounded(j["nm_per_decade"]),
+                              rounded(j["apparent_barrier_eV"]), rounded(j["barrier_top_eV"]),
+                              j["regime"].get<std::string>()});
+        }
+        text = fmt::format("# {} · T = {} K · image {} · method {} · geometry {}\n", c.source, c.model.temperature_K,
+                           to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind)) +
+               t.render();
+    }
+    emit(text, a.output);
+}
+
+}  // namespace
+
+void add_predict(CLI::App& app) {
+    auto a = std::make_shared<predict_args>();
+    auto* cmd = app.add_subcommand("predict", "Predict current, conductance, decay constant and apparent barrier "
+                                              "height at given gaps and biases");
+    cmd->add_option("--config,-c", a->config_path, "Junction configuration (YAML); default: the built-in one");
+    cmd->add_option("--gap", a->gap, "Gap: one value (0.6nm), a list (0.5nm,0.6nm) or a range FROM..TO")->required();
+    cmd->add_option("--bias", a->bias, "Sample bias: one value (0.1V, -0.5V), a list or a range FROM..TO")->required();
+    cmd->add_option("--points", a->points, "Points per range (default 11)")->check(CLI::Range(2, 1000000));
+    cmd->add_option("--threads", a->threads, "Worker threads (default: all cores)")->check(CLI::Range(0, 256));
+    add_output_options(cmd, a->format, a->output);
+    cmd->callback([a] { run(*a); });
+}
+
+}  // namespace tipgap::cli

@@ -1,0 +1,132 @@
+#include "output.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <fmt/format.h>
+
+#include "tipgap/atomic_file.hpp"
+#include "tipgap/constants.hpp"
+
+namespace tipgap::cli {
+
+void add_output_options(CLI::App* cmd, output_format& format, std::string& output_path) {
+    std::map<std::string, output_format> names{
+        {"table", output_format::table}, {"csv", output_format::csv}, {"json", output_format::json}};
+    cmd->add_option("--format", format, "Output format: table (rounded, for reading), csv or json (full precision)")
+        ->transform(CLI::CheckedTransformer(names, CLI::ignore_case))
+        ->default_str("table");
+    cmd->add_option("--output,-o", output_path, "Write the result to FILE (atomically) instead of standard output");
+}
+
+void emit(const std::string& text, const std::string& path) {
+    if (path.empty()) {
+        std::fwrite(text.data(), 1, text.size(), stdout);
+        std::fflush(stdout);
+    } else {
+        write_file_atomically(path, text);
+    }
+}
+
+std::string text_table::render() const {
+    std::vector<std::size_t> width(headers.size(), 0);
+    auto cells = [](const std::string& s) {
+        // Display width: count UTF-8 lead bytes only.
+        std::size_t n = 0;
+        for (unsigned char c : s) n += (c & 0xC0) != 0x80;
+        return n;
+    };
+    for (std::size_t i = 0; i < headers.size(); ++i) width[i] = cells(headers[i]);
+    for (const auto& r : rows)
+        for (std::size_t i = 0; i < r.size() && i < width.size(); ++i) width[i] = std::max(width[i], cells(r[i]));
+    auto line = [&](const std::vector<std::string>& r) {
+        std::string out;
+        for (std::size_t i = 0; i < r.size(); ++i) {
+            std::size_t pad = width[i] > cells(r[i]) ? width[i] - cells(r[i]) : 0;
+            if (i) out += "  ";
+            out += std::string(pad, ' ') + r[i];
+        }
+        return out + "\n";
+    };
+    std::string out = line(headers);
+    std::size_t total = 0;
+    for (auto w : width) total += w + 2;
+    out += std::string(total > 2 ? total - 2 : 0, '-') + "\n";
+    for (const auto& r : rows) out += line(r);
+    return out;
+}
+
+std::string full(double v) {
+    if (std::isnan(v)) return "NaN";
+    return fmt::format("{:.17g}", v);
+}
+
+std::string rounded(double v, int digits) {
+    if (std::isnan(v)) return "NaN";
+    if (v == 0.0) return "0";
+    double a = std::abs(v);
+    if (a >= 1e-3 && a < 1e6) {
+        int decimals = std::max(0, digits - 1 - static_cast<int>(std::floor(std::log10(a))));
+        return fmt::format("{:.{}f}", v, decimals);
+    }
+    return fmt::format("{:.{}e}", v, digits - 1);
+}
+
+std::string csv_line(const std::vector<std::string>& cells) {
+    std::string out;
+    for (std::size_t i = 0; i < cells.size(); ++i) {
+        if (i) out += ',';
+        const std::string& c = cells[i];
+        if (c.find_first_of(",\"\n") != std::string::npos) {
+            out += '"';
+            for (char ch : c) out += ch == '"' ? std::string("\"\"") : std::string(1, ch);
+            out += '"';
+        } else {
+            out += c;
+        }
+    }
+    return out + "\n";
+}
+
+tipgap::config load_config_or_default(const std::string& path) {
+    return path.empty() ? tipgap::default_config() : tipgap::load_config(path);
+}
+
+nlohmann::json config_json(const tipgap::config& c) {
+    const double eV = tipgap::si::electron_volt;
+    nlohmann::json j;
+    j["source"] = c.source;
+    auto electrode = [&](const tipgap::electrode& e, double sigma) {
+        nlohmann::json x{{"material", e.material},
+                         {"work_function_eV", e.work_function_J / eV},
+                         {"fermi_energy_eV", e.fermi_energy_J / eV}};
+        if (sigma > 0) x["work_function_stddev_eV"] = sigma / eV;
+        return x;
+    };
+    j["tip"] = electrode(c.model.tip, c.sigma.tip_work_function_J);
+    j["sample"] = electrode(c.model.sample, c.sigma.sample_work_function_J);
+    j["image_potential"] = to_string(c.model.image);
+    j["relative_permittivity"] = c.model.relative_permittivity;
+    j["temperature_K"] = c.model.temperature_K;
+    j["method"] = to_string(c.model.method);
+    j["tolerance"] = c.model.rel_tol;
+    nlohmann::json g{{"kind", to_string(c.geometry.kind)}};
+    if (c.geometry.kind == tipgap::geometry_kind::planar) g["area_nm2"] = c.geometry.area_m2 * 1e18;
+    if (c.geometry.kind == tipgap::geometry_kind::paraboloid) g["apex_radius_nm"] = c.geometry.apex_radius_m * 1e9;
+    if (c.geometry.kind == tipgap::geometry_kind::contact_anchored)
+        g["contact_distance_nm"] = c.geometry.contact_distance_m * 1e9;
+    j["geometry"] = g;
+    return j;
+}
+
+void print_warnings(const std::vector<std::string>& warnings, const std::string& context) {
+    for (const auto& w : warnings) {
+        if (context.empty()) {
+            fmt::print(stderr, "tipgap: warning: {}\n", w);
+        } else {
+            fmt::print(stderr, "tipgap: warning: {}: {}\n", context, w);
+        }
+    }
+}
+
+}  // namespace tipgap::cli

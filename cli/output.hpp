@@ -1,0 +1,44 @@
+#pragma once
+// Shared CLI plumbing: output formats, tables, writing to stdout or atomically to --output.
+#include <CLI/CLI.hpp>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "tipgap/config.hpp"
+
+namespace tipgap::cli {
+
+enum class output_format { table, csv, json };
+
+// Adds --format table|csv|json and --output FILE to a subcommand.
+void add_output_options(CLI::App* cmd, output_format& format, std::string& output_path);
+
+// Writes text to stdout, or atomically to `path` when it is not empty.
+void emit(const std::string& text, const std::string& path);
+
+// A table of strings with a header row: rendered aligned for reading, or as CSV.
+struct text_table {
+    std::vector<std::string> headers;
+    std::vector<std::vector<std::string>> rows;
+    std::string render() const;
+};
+
+// Full precision for CSV/JSON-like text: 17 significant digits.
+std::string full(double v);
+// Rounded for tables: `digits` significant digits.
+std::string rounded(double v, int digits = 4);
+
+// CSV line from cells (quotes cells containing commas or quotes).
+std::string csv_line(const std::vector<std::string>& cells);
+
+// --config FILE, or the built-in default when empty.
+tipgap::config load_config_or_default(const std::string& path);
+
+// JSON summary of a configuration (for output metadata).
+nlohmann::json config_json(const tipgap::config& c);
+
+// Prints each warning to stderr as "tipgap: warning: ...".
+void print_warnings(const std::vector<std::string>& warnings, const std::string& context = "");
+
+}  // namespace tipgap::cli
