@@ -73,10 +73,10 @@ void run(const predict_args& a) {
                          "barrier_top_eV", "barrier_width_nm", "regime"});
         for (const auto& r : results) {
             auto j = point_json(r);
-            text += csv_line({full(j["gap_nm"]), full(j["bias_V"]), full(j["temperature_K"]),
-                              full(j["current_density_A_per_m2"]), full(j["current_A"]), full(j["conductance_S"]),
-                              full(j["conductance_G0"]), full(j["decay_constant_per_nm"]), full(j["nm_per_decade"]),
-                              full(j["apparent_barrier_eV"]), full(j["barrier_top_eV"]), full(j["barrier_width_nm"]),
+            text += csv_line({full_precision(j["gap_nm"]), full_precision(j["bias_V"]), full_precision(j["temperature_K"]),
+                              full_precision(j["current_density_A_per_m2"]), full_precision(j["current_A"]), full_precision(j["conductance_S"]),
+                              full_precision(j["conductance_G0"]), full_precision(j["decay_constant_per_nm"]), full_precision(j["nm_per_decade"]),
+                              full_precision(j["apparent_barrier_eV"]), full_precision(j["barrier_top_eV"]), full_precision(j["barrier_width_nm"]),
                               j["regime"].get<std::string>()});
         }
     } else {
@@ -95,7 +95,7 @@ void run(const predict_args& a) {
                            to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind)) +
                t.render();
     }
-    emit(text, a.output);
+    write_output(a.output, text);
 }
 
 }  // namespace

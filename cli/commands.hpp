@@ -6,4 +6,7 @@ namespace tipgap::cli {
 
 void add_predict(CLI::App& app);
 
+// tipgap fit: decay constant and apparent barrier height of measured I(z) curves (cmd_fit.cpp).
+void add_fit(CLI::App& app);
+
 }  // namespace tipgap::cli

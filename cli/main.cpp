@@ -13,6 +13,7 @@ int main(int argc, char** argv) {
     app.require_subcommand(1, 1);
     app.fallthrough(false);
     tipgap::cli::add_predict(app);
+    tipgap::cli::add_fit(app);
 
     try {
         app.parse(argc, argv);
