@@ -85,6 +85,26 @@ void run(const synth_args& a, const CLI::App* cmd) {
     o.seed = a.seed;
     o.tip_label = a.tip_label;
     o.sample_label = a.sample_label;
+    // Validate here so that errors name the flag, not the options field.
+    auto as_flag = [](const error& e) -> std::string {
+        static const std::pair<const char*, const char*> flags[] = {
+            {"bias_V", "--bias"},           {"gap_min_m", "--gap"},          {"gap_max_m", "--gap"},
+            {"points", "--points"},         {"gap_at_z0_m", "--gap-at-z0"},  {"current_noise_A", "--noise"},
+            {"baseline_A", "--baseline"},   {"saturation_A", "--saturation"}, {"drift_m", "--drift"},
+            {"jump_gap_m", "--jump-gap"},   {"contact_conductance_G0", "--contact-conductance"},
+            {"grid", "--grid"},             {"pitch_m", "--pitch"},          {"disc_radius_m", "--disc-radius"},
+            {"disc_work_function_J", "--disc-work-function"}, {"sweeps", "--sweeps"}};
+        for (const auto& [field, flag] : flags)
+            if (e.where().key == field) return flag;
+        return e.where().key;
+    };
+    try {
+        synth_options check = o;
+        if (!a.grid.empty()) check.points = a.points_per_curve;
+        check.validate(c.model);
+    } catch (const error& e) {
+        throw_usage(as_flag(e), e.detail());
+    }
     const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
     const std::string line = command_line(cmd);
 
@@ -127,6 +147,14 @@ void run(const synth_args& a, const CLI::App* cmd) {
     }
     g.disc_work_function_J = flag_quantity(a.disc_wf, dimension::energy, "--disc-work-function");
     o.points = a.points_per_curve;
+    try {
+        g.validate();
+        if (o.drift_m != 0.0) throw_input(location{"", 0, 0, "drift_m"}, "piezo drift is not supported in grid mode");
+        if (o.sweeps != synth_sweeps::retract)
+            throw_input(location{"", 0, 0, "sweeps"}, "grid mode writes one retract sweep per pixel");
+    } catch (const error& e) {
+        throw_usage(as_flag(e), e.detail());
+    }
     const auto t0 = std::chrono::steady_clock::now();
     const synth_grid_truth t = write_synth_grid(c, o, g, a.out, truth, line);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
