@@ -15,6 +15,8 @@ int main(int argc, char** argv) {
     app.fallthrough(false);
     tipgap::cli::add_predict(app);
     tipgap::cli::add_fit(app);
+    tipgap::cli::add_synth(app);
+    tipgap::cli::add_demo(app);
 
     try {
         app.parse(argc, argv);

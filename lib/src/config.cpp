@@ -57,8 +57,10 @@ struct reader {
             if (!ok) {
                 std::string list;
                 for (const char* a : allowed) list += (list.empty() ? "" : ", ") + std::string(a);
-                location w = at(kv.first, prefix);
-                throw_input(w, fmt::format("unknown key {}; expected one of: {}", quote_input(k, 40), list));
+                // The key goes into the location (clipped: it is the user's text, maybe a whole line).
+                const std::string shown = k.size() > 60 ? k.substr(0, 60) + "..." : k;
+                throw_input(at(kv.first, prefix.empty() ? shown : prefix + "." + shown),
+                            fmt::format("unknown key; expected one of: {}", list));
             }
             for (const auto& s : seen) {
                 if (s == k) throw_input(at(kv.first, path), "the key appears twice; expected each key once");
@@ -117,18 +119,17 @@ void validate_at(const reader& r, const YAML::Node& root, F&& f) {
             if (dot == std::string::npos) break;
             start = dot + 1;
         }
-        // Walk down with reset(): plain assignment of a YAML::Node writes through to the node it
-        // refers to, and would rewrite the tree instead of moving the cursor.
+        // yaml-cpp's operator= on a Node assigns content; reset() rebinds, which is what a walk needs.
         YAML::Node cur;
         cur.reset(root);
         bool ok = true;
         for (const auto& p : parts) {
-            if (!cur.IsMap() || !cur[p]) {
+            const YAML::Node& view = cur;
+            if (!view.IsMap() || !view[p]) {
                 ok = false;
                 break;
             }
-            YAML::Node child = cur[p];
-            cur.reset(child);
+            cur.reset(view[p]);
         }
         location w = ok ? r.at(cur, key) : r.at(YAML::Node(), key);
         if (!ok) w.file = r.file;

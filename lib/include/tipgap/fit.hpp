@@ -166,6 +166,12 @@ struct fit_result {
 
     contact_result contact;
     std::vector<profile_point> profile;
+    // The points the model used, as indices into the sweep's z_m/current_A, in ascending z.
+    std::vector<std::size_t> used_rows;
+    // The weighted line ln|I| = intercept + slope z of the linear model over the used points
+    // (statistical covariance, no calibration); for the offset model, its linear starting fit.
+    // Gives the confidence band of the fitted ln|I| in plots.
+    line_fit line;
     std::vector<std::string> warnings;
 };
 
