@@ -1,14 +1,23 @@
 # Thin wrapper for the README's two commands. Everything real lives in CMake.
 #   make demo   install missing Debian packages, build (Release), run `tipgap demo`
-#   make check  install missing Debian packages, build, run the whole test suite (ctest)
+#   make check  install missing Debian packages, then
+#               1. Release build + the whole ctest suite,
+#               2. ASan+UBSan build (build-asan/) + the ctest suite without the SciPy cross-checks,
+#               3. the libFuzzer targets (build-fuzz/, clang) for FUZZ_SECONDS each.
+#               `make check-release`, `make check-sanitize` and `make fuzz` run one step alone.
 BUILD ?= build
+SAN_BUILD ?= build-asan
+FUZZ_SECONDS ?= 60
+# The sanitizer run reads 64 MiB lines instead of 1 GiB ones in tests/bad_inputs (ASan's shadow
+# memory and slower scanning make the full size cost minutes, and the code path is the same).
+SAN_LONG_LINE_BYTES ?= 67108864
 JOBS ?= $(shell nproc)
 DEMO_OUT ?= tipgap-demo
 DEBIAN_PACKAGES = cmake g++ make pkg-config libboost-math-dev libeigen3-dev libyaml-cpp-dev \
   libgtest-dev libgmock-dev libcli11-dev libfmt-dev nlohmann-json3-dev libplplot-dev plplot-driver-cairo \
   libbenchmark-dev python3 python3-numpy python3-scipy clang libclang-rt-14-dev time
 
-.PHONY: deps build demo check
+.PHONY: deps build demo check check-release check-sanitize fuzz
 
 deps:
 	@missing=""; for p in $(DEBIAN_PACKAGES); do \
@@ -27,5 +36,21 @@ build: deps
 demo: build
 	$(BUILD)/cli/tipgap demo --out $(DEMO_OUT)
 
-check: build
+# In this order even under `make -j`: a failing Release suite stops before the slower steps.
+check:
+	$(MAKE) check-release
+	$(MAKE) check-sanitize
+	$(MAKE) fuzz
+
+check-release: build
 	ctest --test-dir $(BUILD) --output-on-failure -j $(JOBS)
+
+check-sanitize: deps
+	cmake -S . -B $(SAN_BUILD) -DCMAKE_BUILD_TYPE=RelWithDebInfo -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF
+	cmake --build $(SAN_BUILD) -j $(JOBS)
+	ASAN_OPTIONS=detect_leaks=1:abort_on_error=1 UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
+	  TIPGAP_LONG_LINE_BYTES=$(SAN_LONG_LINE_BYTES) \
+	  ctest --test-dir $(SAN_BUILD) --output-on-failure -j $(JOBS) -E '^scipy\.'
+
+fuzz: deps
+	FUZZ_SECONDS=$(FUZZ_SECONDS) FUZZ_JOBS=$(JOBS) tests/fuzz/run_fuzzers.sh

@@ -10,6 +10,7 @@
 
 #include "commands.hpp"
 #include "output.hpp"
+#include "tipgap/atomic_file.hpp"
 #include "tipgap/constants.hpp"
 #include "tipgap/demo.hpp"
 #include "tipgap/fit_plot.hpp"
@@ -200,11 +201,11 @@ void run(const demo_args& a) {
     o.model_comparison = !a.no_model;
     const demo_report r = run_demo(o);
 
-    std::error_code ec;
-    std::filesystem::create_directories(a.out, ec);
-    if (ec) throw_input(location{a.out, 0, 0, "--out"}, "cannot create the output directory: " + ec.message());
+    // The report appears whole or not at all: it is written into a hidden sibling directory that
+    // replaces --out in one rename at the end (tipgap/atomic_file.hpp).
     namespace fs = std::filesystem;
-    const fs::path dir(a.out);
+    atomic_directory out_dir(a.out);
+    const fs::path dir(out_dir.path());
     write_output((dir / "prediction.csv").string(), prediction_csv(r));
     write_output((dir / "fits.csv").string(), fits_csv(r));
     write_output((dir / "demo.json").string(), report_json(r, a.out).dump(2) + "\n");
@@ -215,6 +216,7 @@ void run(const demo_args& a) {
         plot::write_figure(make_fit_figure(d.sweep(), d.fit, d.model ? &*d.model : nullptr, title),
                            (dir / plot_name(d)).string());
     }
+    out_dir.commit();
 
     const prediction& mid = r.sweep[r.sweep.size() / 2];
     fmt::print("tipgap demo: built-in config ({} tip {:.2f} eV, {} sample {:.2f} eV, {} K, image potential {})\n",

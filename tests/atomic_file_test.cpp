@@ -91,3 +91,48 @@ TEST(atomic_file, killed_mid_write_without_an_old_file_leaves_no_target) {
     killed_writer(target, 1 << 16, false);
     EXPECT_FALSE(fs::exists(target));
 }
+
+// The output directory of a report (`demo --out`, the grid `map`): a writer killed half-way leaves
+// no directory under the target's name, and a committed one replaces an old directory whole.
+TEST(atomic_file, killed_directory_writer_leaves_no_partial_directory) {
+    scratch_dir dir;
+    const fs::path target = dir.path / "report";
+    const pid_t pid = ::fork();
+    if (pid == 0) {
+        tipgap::atomic_directory out(target.string());
+        tipgap::write_file_atomically((fs::path(out.path()) / "a.csv").string(), "1\n");
+        ::raise(SIGKILL);
+        ::_exit(0);
+    }
+    int status = 0;
+    ::waitpid(pid, &status, 0);
+    ASSERT_TRUE(WIFSIGNALED(status));
+    EXPECT_FALSE(fs::exists(target));
+    for (const auto& e : fs::directory_iterator(dir.path)) {
+        EXPECT_TRUE(std::regex_match(e.path().filename().string(),
+                                     std::regex("\\.report\\.tmp-" + std::to_string(pid) + "-[0-9]+")))
+            << e.path();
+    }
+}
+
+TEST(atomic_file, committed_directory_replaces_the_old_one_whole) {
+    scratch_dir dir;
+    const fs::path target = dir.path / "report";
+    fs::create_directories(target);
+    tipgap::write_file_atomically((target / "old.csv").string(), "old\n");
+    {
+        tipgap::atomic_directory out(target.string());
+        tipgap::write_file_atomically((fs::path(out.path()) / "new.csv").string(), "new\n");
+        EXPECT_TRUE(fs::exists(target / "old.csv"));  // untouched until commit
+        out.commit();
+    }
+    EXPECT_FALSE(fs::exists(target / "old.csv"));
+    EXPECT_EQ(read_all(target / "new.csv"), "new\n");
+    EXPECT_EQ(std::distance(fs::directory_iterator(dir.path), fs::directory_iterator{}), 1);
+    {
+        tipgap::atomic_directory abandoned(target.string());  // destroyed without commit
+        tipgap::write_file_atomically((fs::path(abandoned.path()) / "x.csv").string(), "x\n");
+    }
+    EXPECT_EQ(read_all(target / "new.csv"), "new\n");
+    EXPECT_EQ(std::distance(fs::directory_iterator(dir.path), fs::directory_iterator{}), 1);
+}
