@@ -2,7 +2,7 @@
 
 #include <cstdio>
 #include <fmt/format.h>
-#include <regex>
+#include <string_view>
 #include <vector>
 
 namespace tipgap::cli {
@@ -45,11 +45,25 @@ std::string one_line(std::string text) {
     return text;
 }
 
+namespace {
+bool starts_with(const std::string& s, std::string_view p) { return s.compare(0, p.size(), p) == 0; }
+bool ends_with(const std::string& s, std::string_view p) {
+    return s.size() >= p.size() && s.compare(s.size() - p.size(), p.size(), p) == 0;
+}
+// "name: rest" -> name and rest (name without spaces); false when the text is not of that form.
+bool split_name(const std::string& s, std::string& name, std::string& rest) {
+    const std::size_t colon = s.find(": ");
+    if (colon == std::string::npos || colon == 0 || s.find(' ') < colon) return false;
+    name = s.substr(0, colon);
+    rest = s.substr(colon + 2);
+    return true;
+}
+}  // namespace
+
 std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
     const std::string what = e.what();
     const std::string help = fmt::format("see '{} --help'", command_name(app));
-    std::smatch m;
-    // CLI11's wordings (CLI/Error.hpp, CLI/Validators.hpp of CLI11 2.1), most specific first.
+    // CLI11's wordings (CLI/Error.hpp, CLI/Validators.hpp of CLI11 2.1), matched as plain text.
     if (what == "A subcommand is required") {
         const std::vector<std::string> rest = app.remaining();
         if (!rest.empty()) {
@@ -58,15 +72,17 @@ std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
         }
         return fmt::format("no command given; expected one of: {} (see 'tipgap --help')", subcommand_list(app));
     }
-    static const std::regex required(R"(^(\S+) is required$)");
-    if (std::regex_match(what, m, required)) {
-        return fmt::format("{}: missing; expected {} ({})", m[1].str(), option_usage(app, m[1].str()), help);
+    constexpr std::string_view is_required = " is required";
+    if (ends_with(what, is_required) && what.find(' ') == what.size() - is_required.size()) {
+        const std::string name = what.substr(0, what.size() - is_required.size());
+        return fmt::format("{}: missing; expected {} ({})", name, option_usage(app, name), help);
     }
-    static const std::regex not_expected(R"(^The following arguments? (?:was|were) not expected: (.*)$)");
-    if (std::regex_match(what, m, not_expected)) {
+    for (std::string_view prefix : {"The following argument was not expected: ",
+                                    "The following arguments were not expected: "}) {
+        if (!starts_with(what, prefix)) continue;
         // CLI11 lists the extras last first; put them back in command-line order.
         std::vector<std::string> words;
-        const std::string list = m[1].str();
+        const std::string list = what.substr(prefix.size());
         for (std::size_t i = 0; i <= list.size();) {
             std::size_t sp = list.find(' ', i);
             if (sp == std::string::npos) sp = list.size();
@@ -78,25 +94,42 @@ std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
         return fmt::format("{} not understood; expected only the options and arguments listed by '{} --help'",
                            quote_input(in_order), command_name(app));
     }
-    static const std::regex range(R"(^(\S+): Value (.*) not in range (\S+) to (\S+)$)");
-    if (std::regex_match(what, m, range)) {
-        return fmt::format("{}: {} is not allowed; expected a number from {} to {} ({})", m[1].str(),
-                           quote_input(m[2].str()), m[3].str(), m[4].str(), help);
+    std::string name, rest;
+    if (split_name(what, name, rest)) {
+        // "--points: Value 1 not in range 2 to 1000000"
+        const std::size_t in_range = rest.find(" not in range ");
+        const std::size_t to = rest.rfind(" to ");
+        if (starts_with(rest, "Value ") && in_range != std::string::npos && to != std::string::npos && to > in_range) {
+            const std::string value = rest.substr(6, in_range - 6);
+            const std::string lo = rest.substr(in_range + 14, to - in_range - 14);
+            const std::string hi = rest.substr(to + 4);
+            return fmt::format("{}: {} is not allowed; expected a number from {} to {} ({})", name, quote_input(value),
+                               lo, hi, help);
+        }
+        // "--gap: 1 required TEXT missing"
+        if (ends_with(rest, " missing") && rest.find(" required ") != std::string::npos) {
+            return fmt::format("{}: the value is missing; expected {} ({})", name, option_usage(app, name), help);
+        }
     }
-    static const std::regex convert(R"(^Could not convert: (\S+) = (.*)$)");
-    if (std::regex_match(what, m, convert)) {
-        return fmt::format("{}: {} is not a valid value; expected a number ({})", m[1].str(), quote_input(m[2].str()),
-                           help);
+    // "Could not convert: --confidence = abc"
+    constexpr std::string_view convert = "Could not convert: ";
+    if (starts_with(what, convert)) {
+        const std::size_t eq = what.find(" = ", convert.size());
+        if (eq != std::string::npos) {
+            return fmt::format("{}: {} is not a valid value; expected a number ({})",
+                               what.substr(convert.size(), eq - convert.size()), quote_input(what.substr(eq + 3)), help);
+        }
     }
-    static const std::regex not_allowed(R"(^The value (.*) is not an allowed value for (\S+)$)");
-    if (std::regex_match(what, m, not_allowed)) {
-        return fmt::format("{}: {} is not a valid value; expected a number ({})", m[2].str(), quote_input(m[1].str()),
-                           help);
-    }
-    static const std::regex missing_value(R"(^(\S+): \d+ required (\S+) missing$)");
-    if (std::regex_match(what, m, missing_value)) {
-        return fmt::format("{}: the value is missing; expected {} ({})", m[1].str(), option_usage(app, m[1].str()),
-                           help);
+    // "The value abc is not an allowed value for --confidence"
+    constexpr std::string_view value_prefix = "The value ";
+    constexpr std::string_view not_allowed = " is not an allowed value for ";
+    if (starts_with(what, value_prefix)) {
+        const std::size_t at = what.rfind(not_allowed);
+        if (at != std::string::npos && at >= value_prefix.size()) {
+            return fmt::format("{}: {} is not a valid value; expected a number ({})",
+                               what.substr(at + not_allowed.size()),
+                               quote_input(what.substr(value_prefix.size(), at - value_prefix.size())), help);
+        }
     }
     return fmt::format("{} ({})", what, help);
 }

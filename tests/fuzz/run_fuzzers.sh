@@ -17,9 +17,10 @@ jobs="${FUZZ_JOBS:-2}"
 targets="${FUZZ_TARGETS:-fuzz_quantity fuzz_config fuzz_curve_csv}"
 cd "$root"
 
+mkdir -p "$build"
 cmake -S . -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_COMPILER=clang++ \
-  -DTIPGAP_FUZZ=ON -DTIPGAP_BUILD_TESTS=ON -DTIPGAP_BUILD_BENCH=OFF > "$build.configure.log" 2>&1 \
-  || { cat "$build.configure.log"; exit 1; }
+  -DTIPGAP_FUZZ=ON -DTIPGAP_BUILD_TESTS=ON -DTIPGAP_BUILD_BENCH=OFF > "$build/configure.log" 2>&1 \
+  || { cat "$build/configure.log"; exit 1; }
 # Only the fuzz targets and what they link (not the test binary).
 cmake --build "$build" -j "$jobs" --target $targets
 
