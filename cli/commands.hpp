@@ -5,5 +5,7 @@
 namespace tipgap::cli {
 
 void add_predict(CLI::App& app);
+void add_plan(CLI::App& app);
+void add_table(CLI::App& app);
 
 }  // namespace tipgap::cli

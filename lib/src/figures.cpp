@@ -30,6 +30,13 @@ std::pair<double, const char*> current_unit(double max_abs_A) {
     return {1e3, "mA"};
 }
 
+// "1 nA", "250 pA": a current with a prefix for labels.
+std::string current_text(double A) {
+    auto [scale, unit] = current_unit(std::abs(A) * 1.0000001);
+    if (std::abs(A) * scale >= 1000) return fmt::format("{:g} A", A);
+    return fmt::format("{:g} {}", A * scale, unit);
+}
+
 std::vector<double> linspace(double a, double b, int n) {
     std::vector<double> v(static_cast<std::size_t>(n));
     for (int i = 0; i < n; ++i) v[static_cast<std::size_t>(i)] = a + (b - a) * i / (n - 1);
@@ -51,10 +58,11 @@ gap_curve gap_dependence(const config& c, double bias_V, double lo_m, double hi_
     const double coeff = si::hbar * si::hbar / (8.0 * si::electron_mass) / J_per_eV;
     for (std::size_t i = 0; i < s.size(); ++i) {
         g.gap_nm.push_back(s[i] * 1e9);
-        // Central differences inside, one-sided at the ends (a plot needs ~1e-3, the grid gives it).
-        const std::size_t a = i == 0 ? 0 : i - 1, b = i + 1 == s.size() ? i : i + 1;
-        if (g.current_A[a] > 0 && g.current_A[b] > 0) {
-            const double slope = (std::log(g.current_A[b]) - std::log(g.current_A[a])) / (s[b] - s[a]);
+        // Central differences inside (a plot needs ~1e-3, the grid gives it); the two end points,
+        // where only a first-order one-sided difference exists, are left out.
+        if (i == 0 || i + 1 == s.size()) continue;
+        if (g.current_A[i - 1] > 0 && g.current_A[i + 1] > 0) {
+            const double slope = (std::log(g.current_A[i + 1]) - std::log(g.current_A[i - 1])) / (s[i + 1] - s[i - 1]);
             g.barrier_eV[i] = coeff * slope * slope;
         }
     }
@@ -87,7 +95,7 @@ plot::xy_panel current_bias_panel(const config& c, double gap_m, double v_max, i
     double m = 0;
     for (double x : I) m = std::max(m, std::abs(x));
     auto [scale, unit] = current_unit(m);
-    plot::series s{v, {}, fmt::format("gap {:.3g} nm", gap_m * 1e9), plot::draw_style::line, 0};
+    plot::series s{v, {}, "", plot::draw_style::line, 0};  // the title names the gap
     for (double x : I) s.y.push_back(x * scale);
     plot::xy_panel p;
     p.title = fmt::format("Current against bias at a gap of {:.3g} nm", gap_m * 1e9);
@@ -138,7 +146,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         for (double k : keys) {
             plot::series s;
             s.style = plot::draw_style::line_and_markers;
-            s.label = many_bias ? fmt::format("I = {:g} A", std::abs(k)) : fmt::format("V = {:g} V", k);
+            s.label = many_bias ? "I = " + current_text(std::abs(k)) : fmt::format("V = {:g} V", k);
             for (const auto& p : points) {
                 if ((many_bias ? p.setpoint_A : p.bias_V) != k) continue;
                 s.x.push_back(many_bias ? p.bias_V : std::abs(p.setpoint_A));
@@ -222,12 +230,14 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
     if (ng > 1) {
         plot::xy_panel ig = current_gap_panel("Current against gap");
         plot::xy_panel bg = barrier_gap_panel("Apparent barrier height against gap");
-        // At most five biases as lines, spread over the list.
+        // At most five biases as lines, spread over the list. At V = 0 there is no current (and
+        // predict reports the barrier from the conductance): that line stays off the current panel.
         const std::size_t lines = std::min<std::size_t>(nb, 5);
         for (std::size_t l = 0; l < lines; ++l) {
             const std::size_t ib = lines == 1 ? 0 : l * (nb - 1) / (lines - 1);
             plot::series a, b;
             a.label = b.label = fmt::format("V = {:g} V", biases[ib]);
+            a.look = b.look = static_cast<int>(l);
             for (std::size_t k = 0; k < ng; ++k) {
                 a.x.push_back(gaps[k] * 1e9);
                 a.y.push_back(std::abs(at(ib, k).current_A));
@@ -235,7 +245,7 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
                 b.y.push_back(at(ib, k).q.apparent_barrier_J / J_per_eV);
             }
             a.style = b.style = ng > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
-            ig.lines.push_back(a);
+            if (biases[ib] != 0.0) ig.lines.push_back(a);
             bg.lines.push_back(b);
         }
         ig.references.push_back(contact_line());
@@ -246,24 +256,36 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         plot::xy_panel ib_panel;
         ib_panel.title = "Current against bias";
         ib_panel.x_axis = ax("sample bias V [V]");
-        double m = 0;
-        for (const auto& p : r) m = std::max(m, std::abs(p.current_A));
-        auto [scale, unit] = current_unit(m);
-        ib_panel.y_axis = ax(fmt::format("current I [{}]", unit));
+        double m = 0, m_small = std::numeric_limits<double>::infinity();
         const std::size_t lines = std::min<std::size_t>(ng, 5);
-        for (std::size_t l = 0; l < lines; ++l) {
-            const std::size_t ig = lines == 1 ? 0 : l * (ng - 1) / (lines - 1);
+        std::vector<std::size_t> picked;
+        for (std::size_t l = 0; l < lines; ++l) picked.push_back(lines == 1 ? 0 : l * (ng - 1) / (lines - 1));
+        for (std::size_t ig : picked) {
+            double mi = 0;
+            for (std::size_t k = 0; k < nb; ++k) mi = std::max(mi, std::abs(at(k, ig).current_A));
+            m = std::max(m, mi);
+            m_small = std::min(m_small, mi);
+        }
+        // Curves more than two decades apart vanish on a linear axis: then |I| on a log axis.
+        const bool log_axis = m_small > 0 && m / m_small > 100.0;
+        auto [scale, unit] = current_unit(m);
+        ib_panel.y_axis = log_axis ? ax("|current| [A]", plot::axis_scale::log10) : ax(fmt::format("current I [{}]", unit));
+        for (std::size_t l = 0; l < picked.size(); ++l) {
+            const std::size_t ig = picked[l];
             plot::series s;
             s.label = fmt::format("s = {:g} nm", gaps[ig] * 1e9);
             s.style = nb > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
             for (std::size_t k = 0; k < nb; ++k) {
                 s.x.push_back(biases[k]);
-                s.y.push_back(at(k, ig).current_A * scale);
+                s.y.push_back(log_axis ? std::abs(at(k, ig).current_A) : at(k, ig).current_A * scale);
             }
             ib_panel.lines.push_back(s);
         }
-        ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
-        ib_panel.legend = plot::legend_position::top_left;
+        if (log_axis) ib_panel.legend = plot::legend_position::bottom_right;
+        if (!log_axis) {
+            ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
+            ib_panel.legend = plot::legend_position::top_left;
+        }
         f.panels.push_back(ib_panel);
     }
     if (ng == 1 && nb == 1) {
