@@ -115,7 +115,7 @@ void run(const plan_args& a) {
         text = csv_line(head);
         for (std::size_t i = 0; i < points.size(); ++i) {
             auto j = point_json(points[i]);
-            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : full(j[k].get<double>()); };
+            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : full_precision(j[k].get<double>()); };
             std::vector<std::string> row{num("bias_V"), num("current_A"), num("gap_nm"), num("gap_resistance_ohm"),
                                          num("conductance_G0"), num("decay_constant_per_nm"), num("nm_per_decade"),
                                          num("apparent_barrier_eV"),
@@ -125,7 +125,7 @@ void run(const plan_args& a) {
                 for (std::size_t k = 0; k < 3; ++k) {
                     const bool have = !u[i].values.empty() && !u[i].inputs.empty();
                     const uncertain_value v = have ? u[i].values[k] : uncertain_value{};
-                    for (double x : {v.mc_stddev, v.ci95_low, v.ci95_high, v.linear_stddev}) row.push_back(full(x));
+                    for (double x : {v.mc_stddev, v.ci95_low, v.ci95_high, v.linear_stddev}) row.push_back(full_precision(x));
                 }
             }
             text += csv_line(row);
@@ -161,7 +161,7 @@ void run(const plan_args& a) {
         }
         text += t.render();
     }
-    emit(text, a.output);
+    write_output(a.output, text);
     if (!a.plot_path.empty()) plot::write_figure(plan_figure(c, points, a.threads), a.plot_path);
 }
 

@@ -99,15 +99,15 @@ void run(const predict_args& a) {
         text = csv_line(head);
         for (std::size_t i = 0; i < results.size(); ++i) {
             auto j = point_json(results[i]);
-            std::vector<std::string> row{full(j["gap_nm"]), full(j["bias_V"]), full(j["temperature_K"]),
-                                         full(j["current_density_A_per_m2"]), full(j["current_A"]),
-                                         full(j["conductance_S"]), full(j["conductance_G0"]),
-                                         full(j["decay_constant_per_nm"]), full(j["nm_per_decade"]),
-                                         full(j["apparent_barrier_eV"]), full(j["barrier_top_eV"]),
-                                         full(j["barrier_width_nm"]), j["regime"].get<std::string>()};
+            std::vector<std::string> row{full_precision(j["gap_nm"]), full_precision(j["bias_V"]), full_precision(j["temperature_K"]),
+                                         full_precision(j["current_density_A_per_m2"]), full_precision(j["current_A"]),
+                                         full_precision(j["conductance_S"]), full_precision(j["conductance_G0"]),
+                                         full_precision(j["decay_constant_per_nm"]), full_precision(j["nm_per_decade"]),
+                                         full_precision(j["apparent_barrier_eV"]), full_precision(j["barrier_top_eV"]),
+                                         full_precision(j["barrier_width_nm"]), j["regime"].get<std::string>()};
             if (u_cols)
                 for (const auto& v : u[i].values)
-                    for (double x : {v.mc_stddev, v.ci95_low, v.ci95_high, v.linear_stddev}) row.push_back(full(x));
+                    for (double x : {v.mc_stddev, v.ci95_low, v.ci95_high, v.linear_stddev}) row.push_back(full_precision(x));
             text += csv_line(row);
         }
     } else {
@@ -136,7 +136,7 @@ void run(const predict_args& a) {
                     : std::string()) +
                t.render();
     }
-    emit(text, a.output);
+    write_output(a.output, text);
     if (!a.plot_path.empty()) plot::write_figure(predict_figure(c, gaps, biases, results, a.threads), a.plot_path);
 }
 

@@ -85,7 +85,7 @@ void run(const table_args& a) {
                          "model_nm_per_decade"});
         for (const auto& r : rows) {
             auto j = row_json(r);
-            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : full(j[k].get<double>()); };
+            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : full_precision(j[k].get<double>()); };
             text += csv_line({r.sample, num("sample_work_function_eV"), num("mean_barrier_eV"),
                               num("decay_constant_per_nm"), num("nm_per_decade"), num("de_broglie_wavelength_nm"),
                               num("gap_nm"), num("apparent_barrier_eV"), num("model_nm_per_decade")});
@@ -108,7 +108,7 @@ void run(const table_args& a) {
                            tip, c.model.tip.work_function_J / si::electron_volt, to_string(c.geometry.kind), I, V) +
                t.render();
     }
-    emit(text, a.output);
+    write_output(a.output, text);
 }
 
 }  // namespace

@@ -15,6 +15,9 @@ int main(int argc, char** argv) {
     tipgap::cli::add_predict(app);
     tipgap::cli::add_plan(app);
     tipgap::cli::add_table(app);
+    tipgap::cli::add_fit(app);
+    tipgap::cli::add_synth(app);
+    tipgap::cli::add_demo(app);
 
     try {
         app.parse(argc, argv);

@@ -10,22 +10,59 @@
 
 namespace tipgap::cli {
 
+const char* to_string(output_format f) {
+    switch (f) {
+        case output_format::table: return "table";
+        case output_format::csv: return "csv";
+        case output_format::json: return "json";
+    }
+    return "table";
+}
+
+bool from_string(std::string_view s, output_format& out) {
+    for (output_format f : {output_format::table, output_format::csv, output_format::json}) {
+        if (s == to_string(f)) {
+            out = f;
+            return true;
+        }
+    }
+    return false;
+}
+
+CLI::Option* add_format_option(CLI::App* cmd, output_format& format) {
+    return cmd
+        ->add_option_function<std::string>(
+            "--format",
+            [&format](const std::string& s) {
+                if (!from_string(s, format)) throw CLI::ValidationError("--format", "expected table, csv or json, got '" + s + "'");
+            },
+            "Output format: table (rounded, for reading), csv or json (full precision)")
+        ->type_name("table|csv|json");
+}
+
 void add_output_options(CLI::App* cmd, output_format& format, std::string& output_path) {
-    std::map<std::string, output_format> names{
-        {"table", output_format::table}, {"csv", output_format::csv}, {"json", output_format::json}};
-    cmd->add_option("--format", format, "Output format: table (rounded, for reading), csv or json (full precision)")
-        ->transform(CLI::CheckedTransformer(names, CLI::ignore_case))
-        ->default_str("table");
+    add_format_option(cmd, format);
     cmd->add_option("--output,-o", output_path, "Write the result to FILE (atomically) instead of standard output");
 }
 
-void emit(const std::string& text, const std::string& path) {
-    if (path.empty()) {
-        std::fwrite(text.data(), 1, text.size(), stdout);
+void write_output(const std::string& path, std::string_view content) {
+    if (path.empty() || path == "-") {
+        std::fwrite(content.data(), 1, content.size(), stdout);
         std::fflush(stdout);
-    } else {
-        write_file_atomically(path, text);
+        return;
     }
+    write_file_atomically(path, content);
+}
+
+std::string csv_cell(std::string_view s) {
+    if (s.find_first_of(",\"\n\r") == std::string_view::npos) return std::string(s);
+    std::string out = "\"";
+    for (char c : s) {
+        if (c == '"') out += '"';
+        out += c;
+    }
+    out += '"';
+    return out;
 }
 
 std::string text_table::render() const {
@@ -56,8 +93,8 @@ std::string text_table::render() const {
     return out;
 }
 
-std::string full(double v) {
-    if (std::isnan(v)) return "NaN";
+std::string full_precision(double v) {
+    if (std::isnan(v)) return "nan";
     return fmt::format("{:.17g}", v);
 }
 
@@ -76,14 +113,7 @@ std::string csv_line(const std::vector<std::string>& cells) {
     std::string out;
     for (std::size_t i = 0; i < cells.size(); ++i) {
         if (i) out += ',';
-        const std::string& c = cells[i];
-        if (c.find_first_of(",\"\n") != std::string::npos) {
-            out += '"';
-            for (char ch : c) out += ch == '"' ? std::string("\"\"") : std::string(1, ch);
-            out += '"';
-        } else {
-            out += c;
-        }
+        out += csv_cell(cells[i]);
     }
     return out + "\n";
 }

@@ -3,6 +3,7 @@
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "tipgap/config.hpp"
@@ -12,11 +13,21 @@ namespace tipgap::cli {
 
 enum class output_format { table, csv, json };
 
+// "table", "csv", "json": the one place for the names used on the command line.
+const char* to_string(output_format f);
+bool from_string(std::string_view s, output_format& out);
+
+// Adds --format table|csv|json to `cmd`, storing into `format`.
+CLI::Option* add_format_option(CLI::App* cmd, output_format& format);
+
 // Adds --format table|csv|json and --output FILE to a subcommand.
 void add_output_options(CLI::App* cmd, output_format& format, std::string& output_path);
 
-// Writes text to stdout, or atomically to `path` when it is not empty.
-void emit(const std::string& text, const std::string& path);
+// Writes `content` to stdout when `path` is empty or "-", else atomically to `path`.
+void write_output(const std::string& path, std::string_view content);
+
+// Quotes a CSV cell when it holds a comma, quote or newline (RFC 4180).
+std::string csv_cell(std::string_view s);
 
 // A table of strings with a header row: rendered aligned for reading, or as CSV.
 struct text_table {
@@ -25,12 +36,12 @@ struct text_table {
     std::string render() const;
 };
 
-// Full precision for CSV/JSON-like text: 17 significant digits.
-std::string full(double v);
+// A double at full precision (17 significant digits, enough to round-trip) for CSV.
+std::string full_precision(double v);
 // Rounded for tables: `digits` significant digits.
 std::string rounded(double v, int digits = 4);
 
-// CSV line from cells (quotes cells containing commas or quotes).
+// CSV line from cells (each through csv_cell), ending in a newline.
 std::string csv_line(const std::vector<std::string>& cells);
 
 // --config FILE, or the built-in default when empty.

@@ -1,0 +1,44 @@
+#pragma once
+// Internals shared by the fit_*.cpp files.
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "tipgap/fit.hpp"
+
+namespace tipgap::detail {
+
+// Median of a copy of the values (n >= 1).
+double median(std::vector<double> v);
+// Median absolute deviation about the median (n >= 1).
+double mad(const std::vector<double>& v);
+
+// "2.00 pA", "1.50 nA": a current for messages, 3 significant digits.
+std::string format_current(double current_A);
+
+// Flat top of repeated near-equal maxima: returns the level at and above which points are
+// saturated, or 0 when there is no flat top. abs_current: |I| of the sweep; noise_A: σ_I.
+double detect_saturation(std::span<const double> abs_current, double noise_A);
+
+// Finds a jump to contact or a conductance plateau at the close end. z_m ascending; abs_current
+// matching; floor_A: noise floor; bias_V: V or NaN; contact_distance_m: m.
+contact_result detect_contact(std::span<const double> z_m, std::span<const double> abs_current, double floor_A,
+                              double bias_V, double contact_distance_m);
+
+// Offset-model fit y = a exp(-b (z - z_ref)) + c on (z_m, sI) with equal weights, started from
+// (a0, b0, c0). Fills the model-specific fields of `r` (decay constant statistics are filled by
+// the caller from b and its standard error).
+struct offset_fit {
+    double amplitude_A = 0.0, amplitude_stderr_A = 0.0;
+    double rate_per_m = 0.0, rate_stderr_per_m = 0.0;  // b = 2κ
+    double offset_A = 0.0, offset_stderr_A = 0.0;
+    double ssr_A2 = 0.0;
+    int evaluations = 0;
+    bool converged = false;
+    std::string message;
+};
+offset_fit fit_offset_model(std::span<const double> z_m, std::span<const double> signed_current_A, double z_ref_m,
+                            double a0_A, double b0_per_m, double c0_A, int max_evaluations);
+
+}  // namespace tipgap::detail
