@@ -5,6 +5,8 @@
 namespace tipgap::cli {
 
 void add_predict(CLI::App& app);
+void add_plan(CLI::App& app);
+void add_table(CLI::App& app);
 
 // tipgap fit: decay constant and apparent barrier height of measured I(z) curves (cmd_fit.cpp).
 void add_fit(CLI::App& app);
