@@ -84,7 +84,18 @@ nlohmann::ordered_json report_json(const demo_report& r, const std::string& out_
                         {"warnings", p.warnings}});
     }
     j["prediction"] = pred;
-    j["plan"] = r.plan_available ? nlohmann::ordered_json::object() : nlohmann::ordered_json("not available yet");
+    nlohmann::ordered_json plan = nlohmann::ordered_json::array();
+    for (const plan_point& p : r.plan) {
+        plan.push_back({{"bias_V", p.bias_V},
+                        {"current_A", p.setpoint_A},
+                        {"gap_nm", p.reachable() ? nlohmann::ordered_json(p.solution.gap_m * 1e9) : nlohmann::ordered_json()},
+                        {"conductance_G0", p.conductance_G0},
+                        {"nm_per_decade", p.nm_per_decade},
+                        {"apparent_barrier_eV", p.apparent_barrier_J / eV},
+                        {"regime", to_string(p.kind)},
+                        {"warnings", p.warnings}});
+    }
+    j["plan"] = plan;
     nlohmann::ordered_json curves = nlohmann::ordered_json::array();
     std::size_t within = 0, compared = 0;
     for (const demo_curve& d : r.curves) {
@@ -224,7 +235,16 @@ void run(const demo_args& a) {
                "phi_ap = {:.3f} eV\n",
                mid.q.bias_V, r.sweep.size(), r.sweep.front().q.gap_m * 1e9, r.sweep.back().q.gap_m * 1e9,
                mid.q.gap_m * 1e9, mid.current_A, mid.q.decay_constant_per_m * 1e-9, mid.q.apparent_barrier_J / eV);
-    if (!r.plan_available) fmt::print("plan: not available yet (tipgap plan has not landed)\n");
+    fmt::print("plan at {:.3g} V (setpoint ladder):", o.bias_V);
+    for (const plan_point& p : r.plan) {
+        if (p.reachable()) {
+            fmt::print("  {:.3g} A -> {:.3f} nm", p.setpoint_A, p.solution.gap_m * 1e9);
+        } else {
+            fmt::print("  {:.3g} A -> unreachable", p.setpoint_A);
+        }
+    }
+    fmt::print("\n");
+    for (const plan_point& p : r.plan) print_warnings(p.warnings, fmt::format("plan {:.3g} A", p.setpoint_A));
     fmt::print("\nfits of the synthetic curves in {} (truth: the synthesiser's expected kappa):\n", a.scans);
     fmt::print("{}", summary_table(r));
     std::size_t within = 0, compared = 0;
