@@ -9,4 +9,7 @@ void add_predict(CLI::App& app);
 // tipgap fit: decay constant and apparent barrier height of measured I(z) curves (cmd_fit.cpp).
 void add_fit(CLI::App& app);
 
+// tipgap map: barrier-height maps of a spectroscopy grid (cmd_map.cpp).
+void add_map(CLI::App& app);
+
 }  // namespace tipgap::cli

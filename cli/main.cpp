@@ -14,6 +14,7 @@ int main(int argc, char** argv) {
     app.fallthrough(false);
     tipgap::cli::add_predict(app);
     tipgap::cli::add_fit(app);
+    tipgap::cli::add_map(app);
 
     try {
         app.parse(argc, argv);
