@@ -41,11 +41,11 @@ def main():
     a = ap.parse_args()
     rng = np.random.default_rng(a.seed)
     z = np.linspace(0.0, a.z_range_nm, a.points)
-    z_txt = [f"{v:.4f}" for v in z]
+    z_txt = [f"{v:.5f}" for v in z]
     k_bg, k_disc = kappa_per_nm(a.barrier_eV), kappa_per_nm(a.disc_barrier_eV)
     cx, cy = 0.5 * (a.nx - 1), 0.5 * (a.ny - 1)
     r2 = (a.disc_radius * min(a.nx, a.ny)) ** 2
-    row_fmt = "%s,%s,%s,%.4g\n" * a.points
+    row_fmt = "%s,%s,%s,%.5g\n" * a.points
     with open(a.out, "w") as f:
         f.write("# synthetic grid made by tests/bench/grid_synth.py (not a measurement)\n")
         f.write(f"# bias: 100 mV\n# seed: {a.seed}\n# pattern: {a.pattern}\n")
