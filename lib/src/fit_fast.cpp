@@ -164,8 +164,10 @@ bool fit_sweep_fast(std::span<const double> z_in, std::span<const double> curren
         next.clear();
         next_w.clear();
         for (std::size_t i = 0; i < n; ++i) {
+            // The cheap tests first: the exponential is only needed for points that pass them.
+            if (!eligible(i) || !(a[i] >= detail::observed_floor_fraction * floor)) continue;
             const double fitted = std::exp(line.intercept + line.slope * z[i]);
-            if (eligible(i) && fitted >= floor && a[i] >= detail::observed_floor_fraction * floor) {
+            if (fitted >= floor) {
                 next.push_back(i);
                 next_w.push_back((fitted / sigma) * (fitted / sigma));
             }
