@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 #include <memory>
+#include <optional>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -14,6 +15,9 @@
 #include "tipgap/curve_io.hpp"
 #include "tipgap/error.hpp"
 #include "tipgap/fit.hpp"
+#include "tipgap/fit_plot.hpp"
+#include "tipgap/model_fit.hpp"
+#include "tipgap/plot.hpp"
 #include "tipgap/units.hpp"
 
 namespace tipgap::cli {
@@ -26,11 +30,16 @@ struct fit_args {
     fit_flags flags;
     output_format format = output_format::table;
     std::string output;
+    std::string plot;         // --plot FILE: one figure per fitted sweep
+    std::string config_path;  // --config FILE: model comparison
 };
 
 struct fitted {
     const measured_curve* curve;
+    const curve_sweep* sweep;
     fit_result result;
+    std::optional<model_fit_result> model;  // with --config
+    std::string plot_path;                  // with --plot
 };
 
 double nm(double m) { return m / 1e-9; }
@@ -99,6 +108,30 @@ nlohmann::ordered_json to_json(const fitted& f) {
     nlohmann::ordered_json meta = nlohmann::ordered_json::object();
     for (const auto& [k, v] : f.curve->metadata.entries) meta[k] = v;
     j["metadata"] = meta;
+    if (f.model) {
+        const model_fit_result& m = *f.model;
+        j["model_fit"] = {{"status", to_string(m.status)},
+                          {"mean_work_function_eV", ev(m.mean_work_function_J)},
+                          {"mean_work_function_stderr_eV", ev(m.mean_work_function_stderr_J)},
+                          {"tip_work_function_eV", ev(m.tip_work_function_J)},
+                          {"sample_work_function_eV", ev(m.sample_work_function_J)},
+                          {"gap_offset_nm", nm(m.gap_offset_m)},
+                          {"gap_offset_stderr_nm", nm(m.gap_offset_stderr_m)},
+                          {"ln_prefactor", m.ln_prefactor},
+                          {"ln_prefactor_stderr", m.ln_prefactor_stderr},
+                          {"correlation_work_function_gap", m.correlation_work_function_gap},
+                          {"gap_min_nm", nm(m.gap_min_m)},
+                          {"gap_max_nm", nm(m.gap_max_m)},
+                          {"model_apparent_barrier_eV", ev(m.model_apparent_barrier_J)},
+                          {"apparent_barrier_eV", ev(m.data_apparent_barrier_J)},
+                          {"work_function_minus_apparent_barrier_eV", ev(m.mean_work_function_J - m.data_apparent_barrier_J)},
+                          {"residual_rms_ln", m.residual_rms_ln},
+                          {"points_used", m.points_used},
+                          {"iterations", m.iterations},
+                          {"model_evaluations", m.model_evaluations},
+                          {"warnings", m.warnings}};
+    }
+    if (!f.plot_path.empty()) j["plot"] = f.plot_path;
     j["warnings"] = r.warnings;
     return j;
 }
@@ -117,7 +150,12 @@ std::string format_csv(const std::vector<fitted>& all) {
         "decay_constant_ci_high_per_nm,apparent_barrier_eV,apparent_barrier_stderr_eV,apparent_barrier_ci_low_eV,"
         "apparent_barrier_ci_high_eV,nm_per_decade,prefactor_A,offset_A,offset_stderr_A,r_squared,residual_rms_ln,"
         "residual_rms_A,points_used,points_total,noise_floor_A,current_noise_A,saturation_A,contact,contact_z_nm,"
-        "gap_offset_nm,warnings\n";
+        "gap_offset_nm,warnings";
+    const bool with_model = !all.empty() && all.front().model.has_value();
+    if (with_model)
+        out += ",model_mean_work_function_eV,model_mean_work_function_stderr_eV,model_gap_offset_nm,"
+               "model_gap_offset_stderr_nm,model_ln_prefactor,model_apparent_barrier_eV,model_status";
+    out += '\n';
     for (const fitted& f : all) {
         const fit_result& r = f.result;
         std::string warnings;
@@ -151,6 +189,14 @@ std::string format_csv(const std::vector<fitted>& all) {
                            r.contact.kind == contact_kind::none ? "" : full_precision(nm(r.contact.z_m)),
                            r.contact.kind == contact_kind::none ? "" : full_precision(nm(r.contact.gap_offset_m)),
                            csv_cell(warnings));
+        if (with_model) {
+            out.pop_back();  // the newline
+            const model_fit_result& m = *f.model;
+            out += fmt::format(",{},{},{},{},{},{},{}\n", full_precision(ev(m.mean_work_function_J)),
+                               full_precision(ev(m.mean_work_function_stderr_J)), full_precision(nm(m.gap_offset_m)),
+                               full_precision(nm(m.gap_offset_stderr_m)), full_precision(m.ln_prefactor),
+                               full_precision(ev(m.model_apparent_barrier_J)), to_string(m.status));
+        }
     }
     return out;
 }
@@ -176,6 +222,32 @@ std::string format_table(const std::vector<fitted>& all) {
         // The header says 95 %; say so when another level was asked for.
         notes += fmt::format("  intervals are at {:.3g} % confidence\n", 100.0 * all.front().result.confidence_level);
     }
+    bool any_model = false;
+    for (const fitted& f : all) any_model = any_model || f.model.has_value();
+    if (any_model) {
+        out += "model comparison (tunnelling model with image potential; free: mean work function, gap offset, "
+               "ln prefactor):\n";
+        for (const fitted& f : all) {
+            if (!f.model) continue;
+            const model_fit_result& m = *f.model;
+            out += fmt::format(
+                "  {} ({}): mean work function {:.3f} +- {:.3f} eV, gap = z + {:.3f} +- {:.3f} nm (gaps {:.3f}..{:.3f} nm), "
+                "ln prefactor {:.3f} +- {:.3f}, {}\n",
+                f.curve->file, to_string(f.result.direction), ev(m.mean_work_function_J), ev(m.mean_work_function_stderr_J),
+                nm(m.gap_offset_m), nm(m.gap_offset_stderr_m), nm(m.gap_min_m), nm(m.gap_max_m), m.ln_prefactor,
+                m.ln_prefactor_stderr, to_string(m.status));
+            out += fmt::format(
+                "    phi_ap {:.3f} eV is {:.3f} eV below the mean work function: the image potential lowers and rounds "
+                "the barrier, so the apparent barrier height is lower than the mean work function (the fitted model "
+                "itself gives phi_ap {:.3f} eV over these gaps)\n",
+                ev(m.data_apparent_barrier_J), ev(m.mean_work_function_J - m.data_apparent_barrier_J),
+                ev(m.model_apparent_barrier_J));
+            for (const std::string& w : m.warnings) out += fmt::format("    warning: {}\n", w);
+        }
+    }
+    for (const fitted& f : all) {
+        if (!f.plot_path.empty()) notes += fmt::format("  plot of {} ({}): {}\n", f.curve->file, to_string(f.result.direction), f.plot_path);
+    }
     if (!notes.empty()) out += "notes:\n" + notes;
     return out;
 }
@@ -184,9 +256,42 @@ void run_fit(const fit_args& args) {
     const fit_options options = to_fit_options(args.flags);
     std::vector<std::unique_ptr<measured_curve>> curves;
     std::vector<fitted> all;
+    std::optional<config> model_config;
+    // "default" names the built-in config (configs/default.yaml), as used by the demo.
+    if (!args.config_path.empty())
+        model_config = args.config_path == "default" ? default_config() : load_config(args.config_path);
+    // Read every plot format problem before the (slow) fits.
+    if (!args.plot.empty()) (void)plot::format_from_path(args.plot);
     for (const std::string& file : args.files) {
         curves.push_back(std::make_unique<measured_curve>(read_curve_csv(file)));
-        for (fit_result& r : fit_curve(*curves.back(), options)) all.push_back({curves.back().get(), std::move(r)});
+        const measured_curve& curve = *curves.back();
+        std::vector<fit_result> results = fit_curve(curve, options);
+        for (std::size_t k = 0; k < results.size(); ++k) {
+            fitted f{&curve, &curve.sweeps[k], std::move(results[k]), std::nullopt, ""};
+            if (model_config) {
+                const double bias = curve.metadata.bias_V ? *curve.metadata.bias_V : std::nan("");
+                location where{curve.file, 0, 0, ""};
+                fit_result linear;
+                if (f.result.model != fit_model::linear) {
+                    fit_options lo = options;
+                    lo.model = fit_model::linear;
+                    linear = fit_sweep(*f.sweep, bias, lo, where);
+                }
+                model_fit_options mo;
+                mo.confidence_level = options.confidence_level;
+                f.model = fit_model_to_sweep(*model_config, *f.sweep, f.result.model == fit_model::linear ? f.result : linear,
+                                             bias, mo, where);
+            }
+            all.push_back(std::move(f));
+        }
+    }
+    if (!args.plot.empty()) {
+        for (std::size_t k = 0; k < all.size(); ++k) {
+            fitted& f = all[k];
+            f.plot_path = numbered_plot_path(args.plot, k, all.size());
+            const std::string title = fmt::format("{} ({})", f.curve->file, to_string(f.result.direction));
+            plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, title), f.plot_path);
+        }
     }
     std::string text = args.format == output_format::json  ? format_json(all)
                        : args.format == output_format::csv ? format_csv(all)
@@ -204,6 +309,14 @@ void add_fit(CLI::App& app) {
         ->required()
         ->type_name("FILE...");
     add_fit_flags(cmd, args->flags, true);
+    cmd->add_option("--plot", args->plot,
+                    "Figure of each fitted sweep (PNG, SVG or PDF by extension): ln|I| with fit and band, residuals, "
+                    "phi_ap(z); several sweeps go to FILE-1.png, FILE-2.png, ...")
+        ->type_name("FILE");
+    cmd->add_option("--config", args->config_path,
+                    "Model comparison: fit the tunnelling model of this config (mean work function, gap offset, "
+                    "prefactor) to each sweep; 'default' is the built-in config")
+        ->type_name("FILE");
     add_format_option(cmd, args->format);
     cmd->add_option("--output", args->output, "Write the report to FILE (atomically) instead of stdout")
         ->type_name("FILE");

@@ -2,6 +2,8 @@
 // coverage on seeded synthetic curves, noise floor, saturation, contact and sweep handling.
 #include <gtest/gtest.h>
 
+#include "detail/normal_source.hpp"
+
 #include <cmath>
 #include <cstdio>
 #include <cstdint>
@@ -26,31 +28,7 @@ namespace {
 constexpr double nm = 1e-9;
 constexpr double per_nm = 1e9;
 
-// Standard normal deviates by Box-Muller from std::mt19937_64 (whose output sequence the C++
-// standard fixes), so that the curves are the same with every standard library.
-class normal_source {
-public:
-    explicit normal_source(std::uint64_t seed) : rng_(seed) {}
-    double next() {
-        if (has_spare_) {
-            has_spare_ = false;
-            return spare_;
-        }
-        const double u1 = uniform_open();
-        const double u2 = uniform_open();
-        const double r = std::sqrt(-2.0 * std::log(u1));
-        spare_ = r * std::sin(2.0 * M_PI * u2);
-        has_spare_ = true;
-        return r * std::cos(2.0 * M_PI * u2);
-    }
-
-private:
-    // (0, 1) from the top 53 bits.
-    double uniform_open() { return (static_cast<double>(rng_() >> 11) + 0.5) * 0x1p-53; }
-    std::mt19937_64 rng_;
-    double spare_ = 0.0;
-    bool has_spare_ = false;
-};
+using tipgap::detail::normal_source;  // Box-Muller on std::mt19937_64 (lib/src/detail)
 
 struct synthetic {
     double kappa_per_m = 10.0 * per_nm;  // 10/nm: φ_ap = 3.81 eV

@@ -186,6 +186,8 @@ void expect_same(const fit_result& a, const fit_result& b) {
     EXPECT_EQ(a.z_ref_m, b.z_ref_m);
     EXPECT_EQ(a.contact.kind, b.contact.kind);
     EXPECT_EQ(a.contact.points_in_contact, b.contact.points_in_contact);
+    EXPECT_EQ(a.saturation_detected, b.saturation_detected);
+    near(a.line.slope, b.line.slope, "line slope");
 }
 
 TEST(grid_fit, fast_fit_agrees_with_fit_sweep_on_sample_pixels) {

@@ -101,14 +101,17 @@ void validate_at(const reader& r, const YAML::Node& root, F&& f) {
             if (dot == std::string::npos) break;
             start = dot + 1;
         }
-        YAML::Node cur = YAML::Clone(root);
+        // yaml-cpp's operator= on a Node assigns content; reset() rebinds, which is what a walk needs.
+        YAML::Node cur;
+        cur.reset(root);
         bool ok = true;
         for (const auto& p : parts) {
-            if (!cur.IsMap() || !cur[p]) {
+            const YAML::Node& view = cur;
+            if (!view.IsMap() || !view[p]) {
                 ok = false;
                 break;
             }
-            cur = cur[p];
+            cur.reset(view[p]);
         }
         location w = ok ? r.at(cur, key) : r.at(YAML::Node(), key);
         if (!ok) w.file = r.file;

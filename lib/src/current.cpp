@@ -211,7 +211,7 @@ point_quantities evaluate_point(const model_options& o, double s, double V) {
     const double hs = std::min(0.01e-9, 0.25 * s);
     double jp = current_density(o, s + hs, V), jm = current_density(o, s - hs, V);
     const double dV = std::max(1e-3, 0.01 * std::abs(V));
-    double jvp = current_density(o, V + dV > o.bias_limit_V ? s : s, V + dV);
+    double jvp = current_density(o, s, V + dV);
     double jvm = current_density(o, s, V - dV);
     p.differential_conductance_density_S_per_m2 = (jvp - jvm) / (2.0 * dV);
     p.conductance_density_S_per_m2 = V != 0.0 ? p.current_density_A_per_m2 / V : p.differential_conductance_density_S_per_m2;

@@ -137,6 +137,15 @@ bool fit_sweep_fast(std::span<const double> z_in, std::span<const double> curren
     r.saturation_A = sat;
     r.contact = detail::detect_contact(z, a, floor, bias_V, opt.contact_distance_m);
     const std::size_t first = r.contact.points_in_contact;
+    // As fit_sweep: a "flat top" wholly inside the contact is the contact, not the amplifier.
+    if (r.saturation_detected) {
+        bool any = false;
+        for (std::size_t i = first; i < n && !any; ++i) any = a[i] >= sat;
+        if (!any) {
+            r.saturation_detected = false;
+            r.saturation_A = sat = 0.0;
+        }
+    }
     auto eligible = [&](std::size_t i) { return i >= first && (sat <= 0.0 || a[i] < sat) && a[i] > 0.0; };
     for (std::size_t i = first; i < n; ++i) {
         if (sat > 0.0 && a[i] >= sat) ++r.points_saturated;
@@ -181,6 +190,7 @@ bool fit_sweep_fast(std::span<const double> z_in, std::span<const double> curren
     }
 
     r.z_ref_m = z[used.front()];
+    r.line = line;
     r.iterations = 1;
     r.points_used = used.size();
     r.prefactor_A = std::exp(line.intercept + line.slope * r.z_ref_m);

@@ -1,5 +1,5 @@
 // Nonlinear least squares I = a exp(-b (z - z_ref)) + c by Levenberg-Marquardt (Eigen's MINPACK
-// port, Moré, Lecture Notes in Mathematics 630 (1978) 105), with the covariance s² (JᵀJ)⁻¹ from an
+// port, Moré, Springer LNM 630 (1978) 105), with the covariance s² (JᵀJ)⁻¹ from an
 // SVD of the Jacobian at the solution, s² = SSR/(n - 3) (as scipy.optimize.curve_fit with
 // absolute_sigma=False).
 #include <Eigen/SVD>

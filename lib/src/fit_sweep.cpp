@@ -213,6 +213,16 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
 
     r.contact = detail::detect_contact(z, a, floor, bias_V, opt.contact_distance_m);
     const std::size_t first = r.contact.points_in_contact;
+    // A conductance plateau is flat too: a "flat top" that lies wholly inside the contact is the
+    // contact, not the amplifier.
+    if (r.saturation_detected) {
+        bool any = false;
+        for (std::size_t i = first; i < n && !any; ++i) any = a[i] >= sat;
+        if (!any) {
+            r.saturation_detected = false;
+            r.saturation_A = sat = 0.0;
+        }
+    }
     auto eligible = [&](std::size_t i) { return i >= first && (sat <= 0.0 || a[i] < sat) && a[i] > 0.0; };
     for (std::size_t i = first; i < n; ++i) {
         if (sat > 0.0 && a[i] >= sat) ++r.points_saturated;
@@ -252,6 +262,8 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         if (same) break;
     }
     r.z_ref_m = z[used.front()];
+    r.line = line;
+    for (std::size_t i : used) r.used_rows.push_back(order[i]);
 
     if (opt.model == fit_model::linear) {
         r.iterations = 1;
@@ -281,8 +293,10 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
     } else {
         std::vector<double> zz, yy;
         double sign_sum = 0.0;
+        r.used_rows.clear();  // the offset model uses every point outside contact and saturation
         for (std::size_t i = 0; i < n; ++i) {
             if (i >= first && (sat <= 0.0 || a[i] < sat)) {
+                r.used_rows.push_back(order[i]);
                 zz.push_back(z[i]);
                 yy.push_back(current[i]);
                 sign_sum += current[i];

@@ -68,13 +68,20 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
                                        int threads) {
     for (const auto& [s, V] : points) validate_operating_point(c.model, s, V, "gap", "bias");
     std::vector<prediction> out(points.size());
+    // Planar and contact-anchored currents are J times a fixed area: reuse J, compute the area once.
+    const bool fixed_area = c.geometry.kind != geometry_kind::paraboloid;
+    const double area = c.geometry.kind == geometry_kind::planar ? c.geometry.area_m2
+                        : fixed_area                              ? contact_anchored_area(c.model, c.geometry)
+                                                                  : 0.0;
     parallel_for(points.size(), threads, [&](std::size_t i) {
         auto [s, V] = points[i];
         prediction& p = out[i];
         p.q = evaluate_point(c.model, s, V);
-        p.current_A = total_current(c.model, c.geometry, s, V);
+        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : total_current(c.model, c.geometry, s, V);
         if (V != 0.0) {
             p.conductance_S = p.current_A / V;
+        } else if (fixed_area) {
+            p.conductance_S = area * p.q.differential_conductance_density_S_per_m2;
         } else {
             const double dV = 1e-3;
             p.conductance_S = total_current(c.model, c.geometry, s, dV) / dV;

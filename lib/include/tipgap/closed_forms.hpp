@@ -16,6 +16,21 @@ double simmons_intermediate(double phibar_J, double width_m, double eV_J);
 // phi0_J: barrier height (J); gap_m: s (m); eV_J: e|V| (J); K: relative permittivity.
 double simmons_image(double phi0_J, double gap_m, double eV_J, double K);
 
+// The barrier behind simmons_image: Simmons 1963 closed-form turning points s1 < s2 (m, measured
+// from the emitting electrode) and the mean barrier height phibar (J) over [s1, s2] of
+//   U(x) = phi0 - eV x/s - 1.15 lambda s^2/(x (s - x)),  lambda = e^2 ln2/(16 pi eps0 K s)  (SI),
+//   s1 = 1.2 lambda s/phi0,  s2 = s [1 - 9.2 lambda/(3 phi0 + 4 lambda - 2 eV)] + s1,
+//   phibar = phi0 - (eV/2s)(s1 + s2) - [1.15 lambda s/(s2 - s1)] ln[s2 (s - s1)/(s1 (s - s2))].
+// Arguments as simmons_image. Throws tipgap::error (input) for eV >= phi0 or a non-positive
+// argument, (no_answer) when the image force closes the barrier (s2 <= s1, s2 >= s or phibar <= 0).
+struct simmons_image_result {
+    double lambda_J = 0;  // lambda (J)
+    double s1_m = 0;      // inner turning point (m)
+    double s2_m = 0;      // outer turning point (m)
+    double phibar_J = 0;  // mean barrier above the emitting Fermi level (J)
+};
+simmons_image_result simmons_image_barrier(double phi0_J, double gap_m, double eV_J, double K);
+
 // Fowler-Nordheim constants (Forbes 2006 conventions): a_FN = e^3/(8 pi h) (A eV V^-2),
 // b_FN = (4/3) sqrt(2 m_e) / (e hbar) in eV^(-3/2) V nm^-1 (6.830890).
 double fn_a_A_eV_per_V2();

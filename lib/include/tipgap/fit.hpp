@@ -169,6 +169,12 @@ struct fit_result {
 
     contact_result contact;
     std::vector<profile_point> profile;
+    // The points the model used, as indices into the sweep's z_m/current_A, in ascending z.
+    std::vector<std::size_t> used_rows;
+    // The weighted line ln|I| = intercept + slope z of the linear model over the used points
+    // (statistical covariance, no calibration); for the offset model, its linear starting fit.
+    // Gives the confidence band of the fitted ln|I| in plots.
+    line_fit line;
     std::vector<std::string> warnings;
 };
 
@@ -187,8 +193,8 @@ struct fit_workspace {
     double t_cache_level = 0.0;   // confidence level of t_cache
 };
 
-// The linear model of fit_sweep for one sweep, without the sliding-window profile, the warnings
-// and the option checks: the same point selection (noise floor, saturation, contact), weights,
+// The linear model of fit_sweep for one sweep, without the sliding-window profile, the warnings,
+// used_rows and the option checks: the same point selection (noise floor, saturation, contact), weights,
 // reweighting passes and statistics, with the weighted line solved in closed form from centred
 // sums (Bevington & Robinson, Data Reduction and Error Analysis, 3rd ed. (2003), eqs. 6.12, 6.21-
 // 6.22) instead of by SVD; the results agree with fit_sweep to rounding. For maps of many pixels.

@@ -1,0 +1,107 @@
+#!/usr/bin/env bash
+# CLI test of `tipgap synth`, `tipgap fit --plot/--config` and `tipgap demo`: byte-identical
+# regeneration of demo_scans/, the numbers in the demo's JSON against the truth files and against
+# `tipgap predict`, valid PNG files, and the synth error messages / exit codes.
+# Env: TIPGAP (executable), TIPGAP_SOURCE_DIR, TIPGAP_PYTHON (Debian python3).
+set -euo pipefail
+: "${TIPGAP:?}" "${TIPGAP_SOURCE_DIR:?}" "${TIPGAP_PYTHON:?}"
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+fail() { echo "FAIL: $*" >&2; exit 1; }
+scans="$TIPGAP_SOURCE_DIR/demo_scans"
+
+# 1. demo_scans/ regenerates byte-identically (the script writes beside itself, so run a copy).
+mkdir "$tmp/regen"
+cp "$scans/make_demo_scans.sh" "$tmp/regen/"
+bash "$tmp/regen/make_demo_scans.sh" "$TIPGAP"
+for f in "$scans"/*.csv "$scans"/*.truth.yaml; do
+  cmp -s "$f" "$tmp/regen/$(basename "$f")" || fail "$(basename "$f") does not regenerate byte-identically"
+done
+n=$(ls "$tmp/regen"/*.csv | wc -l)
+[ "$n" -eq "$(ls "$scans"/*.csv | wc -l)" ] || fail "regenerated $n curves"
+
+# 2. The demo runs and writes its files.
+"$TIPGAP" demo --out "$tmp/demo" > "$tmp/demo.txt"
+for f in prediction.csv fits.csv demo.json prediction.png fit-01_w_au111_clean.png fit-05_w_au111_pair-approach.png \
+         fit-05_w_au111_pair-retract.png; do
+  [ -s "$tmp/demo/$f" ] || fail "demo did not write $f"
+done
+grep -q "kappa inside its 95% interval for 8 of 8 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
+grep -q "^plan: not available yet" "$tmp/demo.txt" || grep -q "^plan:" "$tmp/demo.txt" || fail "no plan line"
+
+# 3. Real numbers in the JSON: every fitted kappa against its truth file (inside the stated 95 %
+#    interval, which is t * stderr wide), phi_ap = hbar^2 kappa^2 / 2m (CODATA 2018), and the
+#    prediction against `tipgap predict` at the same point (same code path: 1e-12 relative).
+"$TIPGAP" predict --gap 0.9nm --bias 0.1V --format json > "$tmp/predict.json"
+"$TIPGAP_PYTHON" - "$tmp/demo/demo.json" "$tmp/predict.json" "$scans" <<'PY'
+import json, math, sys, re, os
+doc = json.load(open(sys.argv[1])); pred = json.load(open(sys.argv[2])); scans = sys.argv[3]
+hbar = 6.62607015e-34 / (2 * math.pi); me = 9.1093837015e-31; e = 1.602176634e-19  # CODATA 2018
+assert doc["command"] == "demo" and doc["synthetic_data"] is True
+curves = doc["curves"]
+assert len(curves) == 8, len(curves)
+def truth_values(path):
+    # The expected kappa of each sweep, read with a regex (no YAML module in Debian's python3 by default).
+    text = open(path).read()
+    return [float(x) for x in re.findall(r"decay_constant_expected_per_nm: ([-0-9.e+]+)", text)]
+seen = {}
+for c in curves:
+    stem = os.path.splitext(os.path.basename(c["file"]))[0]
+    k = seen.get(stem, 0); seen[stem] = k + 1
+    truth = truth_values(os.path.join(scans, stem + ".truth.yaml"))[k]
+    assert abs(c["truth"]["decay_constant_expected_per_nm"] - truth) < 1e-12 * truth, (stem, truth)
+    lo, hi = c["decay_constant_ci_low_per_nm"], c["decay_constant_ci_high_per_nm"]
+    assert lo <= truth <= hi, (stem, lo, truth, hi)
+    assert c["kappa_within_ci"] is True
+    kap = c["decay_constant_per_nm"]
+    assert 9.0 < kap < 12.0, kap
+    phi = hbar**2 * (kap * 1e9)**2 / (2 * me) / e
+    assert abs(c["apparent_barrier_eV"] - phi) < 1e-9 * phi, (c["apparent_barrier_eV"], phi)
+    m = c["model_fit"]
+    # The image potential puts phi_ap below the fitted mean work function.
+    assert m["mean_work_function_eV"] > c["apparent_barrier_eV"] + 0.2, (stem, m)
+assert [c["contact"] for c in curves if "contact" in c["file"]] == ["plateau"]
+assert [c["saturation_detected"] for c in curves if "saturated" in c["file"]] == [True]
+assert doc["summary"] == {"curves_compared": 8, "kappa_within_ci": 8}, doc["summary"]
+p = [x for x in doc["prediction"] if abs(x["gap_nm"] - 0.9) < 1e-9]
+assert len(p) == 1, [x["gap_nm"] for x in doc["prediction"]]
+q = pred["points"][0]
+for key in ["current_A", "decay_constant_per_nm", "apparent_barrier_eV"]:
+    assert abs(p[0][key] - q[key]) <= 1e-12 * abs(q[key]), (key, p[0][key], q[key])
+PY
+
+# 4. PNG files are PNG: signature and an IHDR of the documented size (800 px wide, three 420 px
+#    panels plus the title band for fits).
+"$TIPGAP" fit "$scans/01_w_au111_clean.csv" --plot "$tmp/one.png" --config default > "$tmp/fit.txt"
+"$TIPGAP" fit "$scans/05_w_au111_pair.csv" --plot "$tmp/pair.png" > /dev/null
+[ -e "$tmp/pair-1.png" ] && [ -e "$tmp/pair-2.png" ] && [ ! -e "$tmp/pair.png" ] || fail "pair plots not numbered"
+"$TIPGAP_PYTHON" - "$tmp/one.png" "$tmp/pair-1.png" "$tmp/demo/prediction.png" "$tmp/demo/fit-04_w_au111_contact.png" <<'PY'
+import struct, sys, zlib
+for path in sys.argv[1:]:
+    d = open(path, "rb").read()
+    assert d[:8] == b"\x89PNG\r\n\x1a\n", path
+    length, kind = struct.unpack(">I4s", d[8:16])
+    assert kind == b"IHDR" and length == 13, path
+    w, h = struct.unpack(">II", d[16:24])
+    assert zlib.crc32(d[12:29]) == struct.unpack(">I", d[29:33])[0], path + ": IHDR CRC"
+    assert w == 800 and h > 800, (path, w, h)
+    assert d.endswith(b"IEND\xaeB`\x82"), path + ": no IEND"
+PY
+
+# 5. fit --config: the comparison block and its physics sentence.
+grep -q "^model comparison (tunnelling model with image potential" "$tmp/fit.txt" || fail "no model comparison"
+grep -q "the image potential lowers and rounds the barrier, so the apparent barrier height is lower than the mean work function" "$tmp/fit.txt" || fail "no image-potential sentence"
+grep -Eq "mean work function 4\.9[0-9]{2} \+- 0\.00[0-9] eV" "$tmp/fit.txt" || { cat "$tmp/fit.txt"; fail "fitted work function of the clean curve"; }
+
+# 6. synth errors: exact messages and exit codes.
+set +e
+"$TIPGAP" synth --out "$tmp/x.csv" --gap 1nm 2> "$tmp/err"; rc=$?
+set -e
+[ $rc -eq 2 ] || fail "exit $rc for a bad --gap"
+[ "$(cat "$tmp/err")" = "tipgap: usage error: --gap: expected a range FROM..TO, e.g. 0.45nm..1nm, got '1nm'" ] || fail "$(cat "$tmp/err")"
+set +e
+"$TIPGAP" synth --out "$tmp/x.csv" --noise -1pA 2> "$tmp/err"; rc=$?
+set -e
+[ $rc -eq 2 ] && [ "$(cat "$tmp/err")" = "tipgap: usage error: --noise: must be >= 0" ] || fail "bad --noise: $rc $(cat "$tmp/err")"
+[ ! -e "$tmp/x.csv" ] || fail "a failed synth left a file"
+echo "demo_cli: ok"
