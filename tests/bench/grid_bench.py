@@ -5,9 +5,10 @@ Run by hand (not by ctest), from the source tree after a Release build:
     /usr/bin/python3 tests/bench/grid_bench.py [--tipgap build/cli/tipgap] [--workdir /tmp/tipgap_bench]
         [--repeat 3] [--no-scaling] [--no-baseline]
 
-1. Writes a seeded 256 x 256 x 128 grid (synthetic: disc of 3 eV on 4 eV, tests/bench/grid_synth.py;
-   `tipgap synth --grid` replaces it once available) and reads it once so that it is in the page
-   cache for every contender.
+1. Writes a seeded 256 x 256 x 128 grid with `tipgap synth --grid 256x256 --pitch 1nm
+   --points-per-curve 128 --pattern disc --noise 1pA --seed 7` (synthetic; --python-synth uses
+   tests/bench/grid_synth.py instead) and reads it once so that it is in the page cache for every
+   contender.
 2. Times `tipgap map GRID --threads 2 --quiet` under /usr/bin/time -v (wall time, peak RSS), --repeat
    times; reports MB/s end to end (whole command: parse, fit, every output file), fitted samples
    per second and the read+fit time from summary.json.
@@ -33,10 +34,20 @@ ME = 9.1093837015e-31
 EV = 1.602176634e-19
 
 
+SYNTH = {"exe": None, "python": False}
+
+
 def synth(path, nx, ny, points, seed=7):
+    """The grid from `tipgap synth --grid` (seeded, 1 pA noise, disc pattern; truth YAML beside it),
+    or with --python-synth from tests/bench/grid_synth.py."""
     if not os.path.exists(path):
-        subprocess.run([sys.executable, os.path.join(HERE, "grid_synth.py"), path, "--nx", str(nx), "--ny", str(ny),
-                        "--points", str(points), "--seed", str(seed), "--pattern", "disc"], check=True)
+        if SYNTH["python"]:
+            cmd = [sys.executable, os.path.join(HERE, "grid_synth.py"), path, "--nx", str(nx), "--ny", str(ny),
+                   "--points", str(points), "--seed", str(seed), "--pattern", "disc"]
+        else:
+            cmd = [SYNTH["exe"], "synth", "--grid", f"{nx}x{ny}", "--pitch", "1nm", "--points-per-curve", str(points),
+                   "--pattern", "disc", "--noise", "1pA", "--seed", str(seed), "--out", path]
+        subprocess.run(cmd, check=True, stdout=subprocess.DEVNULL)
     with open(path, "rb") as f:  # into the page cache
         while f.read(1 << 24):
             pass
@@ -145,11 +156,13 @@ def main():
     ap.add_argument("--repeat", type=int, default=3)
     ap.add_argument("--no-baseline", action="store_true")
     ap.add_argument("--no-scaling", action="store_true")
+    ap.add_argument("--python-synth", action="store_true", help="make the grids with grid_synth.py instead of tipgap synth")
     a = ap.parse_args()
     exe = os.path.abspath(a.tipgap)
+    SYNTH["exe"], SYNTH["python"] = exe, a.python_synth
     os.makedirs(a.workdir, exist_ok=True)
     print(f"conditions at start: {conditions()}")
-    grid = os.path.join(a.workdir, "grid_256x256x128.csv")
+    grid = os.path.join(a.workdir, "synth_256x256x128.csv" if not a.python_synth else "grid_256x256x128.csv")
     size = synth(grid, 256, 256, 128)
     print(f"grid: {grid}, {size / 1e6:.1f} MB, 256 x 256 pixels x 128 samples (synthetic)")
 
@@ -185,7 +198,7 @@ def main():
         cases = [(64, 64, 128, 2), (128, 128, 128, 2), (256, 256, 128, 2), (128, 128, 64, 2), (128, 128, 256, 2),
                  (256, 256, 128, 1)]
         for nx, ny, pts, th in cases:
-            g = os.path.join(a.workdir, f"grid_{nx}x{ny}x{pts}.csv")
+            g = os.path.join(a.workdir, f"{'grid' if a.python_synth else 'synth'}_{nx}x{ny}x{pts}.csv")
             sz = synth(g, nx, ny, pts)
             rs = [run_map(exe, g, os.path.join(a.workdir, "map_s"), th) for _ in range(a.repeat)]
             r = min(rs, key=lambda q: q["wall"])
