@@ -16,6 +16,7 @@ int main(int argc, char** argv) {
     tipgap::cli::add_plan(app);
     tipgap::cli::add_table(app);
     tipgap::cli::add_fit(app);
+    tipgap::cli::add_map(app);
     tipgap::cli::add_synth(app);
     tipgap::cli::add_demo(app);
 
