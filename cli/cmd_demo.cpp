@@ -7,10 +7,12 @@
 #include <fmt/format.h>
 #include <memory>
 #include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/atomic_file.hpp"
+#include "tipgap/atomic_directory.hpp"
 #include "tipgap/constants.hpp"
 #include "tipgap/demo.hpp"
 #include "tipgap/fit_plot.hpp"
@@ -85,7 +87,18 @@ nlohmann::ordered_json report_json(const demo_report& r, const std::string& out_
                         {"warnings", p.warnings}});
     }
     j["prediction"] = pred;
-    j["plan"] = r.plan_available ? nlohmann::ordered_json::object() : nlohmann::ordered_json("not available yet");
+    nlohmann::ordered_json plan = nlohmann::ordered_json::array();
+    for (const plan_point& p : r.plan) {
+        plan.push_back({{"bias_V", p.bias_V},
+                        {"current_A", p.setpoint_A},
+                        {"gap_nm", p.reachable() ? nlohmann::ordered_json(p.solution.gap_m * 1e9) : nlohmann::ordered_json()},
+                        {"conductance_G0", p.conductance_G0},
+                        {"nm_per_decade", p.nm_per_decade},
+                        {"apparent_barrier_eV", p.apparent_barrier_J / eV},
+                        {"regime", to_string(p.kind)},
+                        {"warnings", p.warnings}});
+    }
+    j["plan"] = plan;
     nlohmann::ordered_json curves = nlohmann::ordered_json::array();
     std::size_t within = 0, compared = 0;
     for (const demo_curve& d : r.curves) {
@@ -204,8 +217,10 @@ void run(const demo_args& a) {
     // The report appears whole or not at all: it is written into a hidden sibling directory that
     // replaces --out in one rename at the end (tipgap/atomic_file.hpp).
     namespace fs = std::filesystem;
-    atomic_directory out_dir(a.out);
-    const fs::path dir(out_dir.path());
+    std::vector<std::string> names{"prediction.csv", "fits.csv", "demo.json", "prediction.png"};
+    for (const demo_curve& d : r.curves) names.push_back(plot_name(d));
+    atomic_directory out_dir(a.out, names);
+    const fs::path dir(out_dir.temporary_path());
     write_output((dir / "prediction.csv").string(), prediction_csv(r));
     write_output((dir / "fits.csv").string(), fits_csv(r));
     write_output((dir / "demo.json").string(), report_json(r, a.out).dump(2) + "\n");
@@ -226,7 +241,16 @@ void run(const demo_args& a) {
                "phi_ap = {:.3f} eV\n",
                mid.q.bias_V, r.sweep.size(), r.sweep.front().q.gap_m * 1e9, r.sweep.back().q.gap_m * 1e9,
                mid.q.gap_m * 1e9, mid.current_A, mid.q.decay_constant_per_m * 1e-9, mid.q.apparent_barrier_J / eV);
-    if (!r.plan_available) fmt::print("plan: not available yet (tipgap plan has not landed)\n");
+    fmt::print("plan at {:.3g} V (setpoint ladder):", o.bias_V);
+    for (const plan_point& p : r.plan) {
+        if (p.reachable()) {
+            fmt::print("  {:.3g} A -> {:.3f} nm", p.setpoint_A, p.solution.gap_m * 1e9);
+        } else {
+            fmt::print("  {:.3g} A -> unreachable", p.setpoint_A);
+        }
+    }
+    fmt::print("\n");
+    for (const plan_point& p : r.plan) print_warnings(p.warnings, fmt::format("plan {:.3g} A", p.setpoint_A));
     fmt::print("\nfits of the synthetic curves in {} (truth: the synthesiser's expected kappa):\n", a.scans);
     fmt::print("{}", summary_table(r));
     std::size_t within = 0, compared = 0;

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "commands.hpp"
+#include "fit_flags.hpp"
 #include "output.hpp"
 #include "tipgap/constants.hpp"
 #include "tipgap/curve_io.hpp"
@@ -26,67 +27,12 @@ constexpr double per_nm = 1e-9;  // 1/m -> 1/nm multiplies by 1e-9
 
 struct fit_args {
     std::vector<std::string> files;
-    std::string noise_floor, saturation, current_noise, window, contact_distance;
-    std::string model = "linear";
-    double calibration_uncertainty = 0.0;
-    double confidence = 0.95;
+    fit_flags flags;
     output_format format = output_format::table;
     std::string output;
     std::string plot;         // --plot FILE: one figure per fitted sweep
     std::string config_path;  // --config FILE: model comparison
 };
-
-// Flag values are parsed by the library's unit parser; its errors become usage errors that name
-// the flag.
-double flag_quantity(const std::string& text, dimension d, const char* flag) {
-    try {
-        return parse_quantity(text, d, location{"", 0, 0, ""});
-    } catch (const error& e) {
-        throw_usage(flag, e.detail());
-    }
-}
-
-fit_options to_options(const fit_args& a) {
-    fit_options o;
-    if (!from_string(a.model, o.model)) throw_usage("--model", fmt::format("expected linear or offset, got '{}'", a.model));
-    if (!a.noise_floor.empty()) o.noise_floor_A = flag_quantity(a.noise_floor, dimension::current, "--noise-floor");
-    if (!a.saturation.empty()) o.saturation_A = flag_quantity(a.saturation, dimension::current, "--saturation");
-    if (!a.current_noise.empty())
-        o.current_noise_A = flag_quantity(a.current_noise, dimension::current, "--current-noise");
-    if (!a.contact_distance.empty())
-        o.contact_distance_m = flag_quantity(a.contact_distance, dimension::length, "--contact-distance");
-    if (!a.window.empty()) {
-        // A bare integer counts points; a value with a length unit is a z extent.
-        const bool has_unit = a.window.find_first_not_of("0123456789 ") != std::string::npos;
-        if (has_unit) {
-            o.window_m = flag_quantity(a.window, dimension::length, "--window");
-        } else {
-            try {
-                o.window_points = static_cast<std::size_t>(std::stoul(a.window));
-            } catch (const std::exception&) {
-                throw_usage("--window", fmt::format("'{}' is not a number of points", a.window));
-            }
-        }
-    }
-    o.calibration_uncertainty = a.calibration_uncertainty;
-    o.confidence_level = a.confidence;
-    try {
-        o.validate();
-    } catch (const error& e) {
-        // Name the flag, not the options field.
-        static const std::pair<const char*, const char*> flags[] = {
-            {"noise_floor_A", "--noise-floor"},     {"saturation_A", "--saturation"},
-            {"current_noise_A", "--current-noise"}, {"calibration_uncertainty", "--calibration-uncertainty"},
-            {"confidence_level", "--confidence"},   {"window_points", "--window"},
-            {"window_m", "--window"},               {"contact_distance_m", "--contact-distance"}};
-        std::string flag = e.where().key;
-        for (const auto& [field, name] : flags) {
-            if (flag == field) flag = name;
-        }
-        throw_usage(flag, e.detail());
-    }
-    return o;
-}
 
 struct fitted {
     const measured_curve* curve;
@@ -307,7 +253,7 @@ std::string format_table(const std::vector<fitted>& all) {
 }
 
 void run_fit(const fit_args& args) {
-    const fit_options options = to_options(args);
+    const fit_options options = to_fit_options(args.flags);
     std::vector<std::unique_ptr<measured_curve>> curves;
     std::vector<fitted> all;
     std::optional<config> model_config;
@@ -362,29 +308,7 @@ void add_fit(CLI::App& app) {
     cmd->add_option("files", args->files, "Curve files: '# key: value' metadata, header 'z [nm],current [nA]', rows")
         ->required()
         ->type_name("FILE...");
-    cmd->add_option("--noise-floor", args->noise_floor,
-                    "Current below which points are noise, e.g. 2pA (default: estimated from the far tail)")
-        ->type_name("CURRENT");
-    cmd->add_option("--saturation", args->saturation,
-                    "Amplifier saturation, e.g. 10nA (default: detected as a flat top)")
-        ->type_name("CURRENT");
-    cmd->add_option("--current-noise", args->current_noise,
-                    "Standard deviation of the current noise, e.g. 1pA, for the weights (default: estimated)")
-        ->type_name("CURRENT");
-    cmd->add_option("--model", args->model, "linear: weighted fit of ln|I|; offset: I0 exp(-2 kappa z) + c")
-        ->type_name("linear|offset")
-        ->default_str("linear");
-    cmd->add_option("--window", args->window,
-                    "Sliding window of the phi_ap(z) profile: N points or a length, e.g. 0.1nm (default: max(8, n/5) points)")
-        ->type_name("N|LENGTH");
-    cmd->add_option("--calibration-uncertainty", args->calibration_uncertainty,
-                    "Relative piezo calibration uncertainty folded into the errors, e.g. 0.02 (default 0)")
-        ->type_name("FRACTION");
-    cmd->add_option("--confidence", args->confidence, "Confidence level of the intervals (default 0.95)")
-        ->type_name("LEVEL");
-    cmd->add_option("--contact-distance", args->contact_distance,
-                    "Gap at point contact, for the absolute gap scale (default 0.25nm)")
-        ->type_name("LENGTH");
+    add_fit_flags(cmd, args->flags, true);
     cmd->add_option("--plot", args->plot,
                     "Figure of each fitted sweep (PNG, SVG or PDF by extension): ln|I| with fit and band, residuals, "
                     "phi_ap(z); several sweeps go to FILE-1.png, FILE-2.png, ...")

@@ -6,17 +6,21 @@
 #include "output.hpp"
 #include "tipgap/constants.hpp"
 #include "tipgap/error.hpp"
+#include "tipgap/figures.hpp"
+#include "tipgap/plot.hpp"
 #include "tipgap/predict.hpp"
 #include "tipgap/sweep.hpp"
+#include "tipgap/uncertainty.hpp"
 
 namespace tipgap::cli {
 namespace {
 
 struct predict_args {
-    std::string config_path, gap, bias, output;
+    std::string config_path, gap, bias, output, plot_path;
     int points = 11;
     int threads = 0;
     output_format format = output_format::table;
+    uncertainty_options uncertainty;
 };
 
 nlohmann::json point_json(const prediction& p) {
@@ -42,6 +46,8 @@ nlohmann::json point_json(const prediction& p) {
 
 void run(const predict_args& a) {
     config c = load_config_or_default(a.config_path);
+    if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
+    a.uncertainty.validate();
     auto gaps = parse_sweep(a.gap, dimension::length, a.points, spacing::linear, "--gap");
     auto biases = parse_sweep(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
     // Two ranges of up to 1e6 points each would ask for 1e12 points: refuse before allocating.
@@ -58,6 +64,15 @@ void run(const predict_args& a) {
         }
     auto results = predict_points(c, pts, a.threads);
 
+    // Uncertainty per point, when the config gives any.
+    std::vector<uncertainty_summary> u(results.size());
+    const bool with_u = c.sigma.any();
+    if (with_u) {
+        uncertainty_options uo = a.uncertainty;
+        uo.threads = a.threads;
+        for (std::size_t i = 0; i < pts.size(); ++i) u[i] = predict_uncertainty(c, pts[i].first, pts[i].second, uo);
+    }
+
     std::size_t shown = 0, warned = 0;
     for (const auto& r : results) {
         if (r.warnings.empty()) continue;
@@ -72,37 +87,64 @@ void run(const predict_args& a) {
         j["command"] = "predict";
         j["config"] = config_json(c);
         j["points"] = nlohmann::json::array();
-        for (const auto& r : results) j["points"].push_back(point_json(r));
+        for (std::size_t i = 0; i < results.size(); ++i) {
+            auto pj = point_json(results[i]);
+            add_uncertainty_json(pj, u[i]);
+            j["points"].push_back(pj);
+        }
+        if (with_u && !u.empty() && !u.front().inputs.empty()) j["uncertainty"] = uncertainty_info_json(u.front());
         text = j.dump(2) + "\n";
     } else if (a.format == output_format::csv) {
-        text = csv_line({"gap_nm", "bias_V", "temperature_K", "current_density_A_per_m2", "current_A", "conductance_S",
-                         "conductance_G0", "decay_constant_per_nm", "nm_per_decade", "apparent_barrier_eV",
-                         "barrier_top_eV", "barrier_width_nm", "regime"});
-        for (const auto& r : results) {
-            auto j = point_json(r);
-            text += csv_line({full_precision(j["gap_nm"]), full_precision(j["bias_V"]), full_precision(j["temperature_K"]),
-                              full_precision(j["current_density_A_per_m2"]), full_precision(j["current_A"]), full_precision(j["conductance_S"]),
-                              full_precision(j["conductance_G0"]), full_precision(j["decay_constant_per_nm"]), full_precision(j["nm_per_decade"]),
-                              full_precision(j["apparent_barrier_eV"]), full_precision(j["barrier_top_eV"]), full_precision(j["barrier_width_nm"]),
-                              j["regime"].get<std::string>()});
+        std::vector<std::string> head{"gap_nm", "bias_V", "temperature_K", "current_density_A_per_m2", "current_A",
+                                      "conductance_S", "conductance_G0", "decay_constant_per_nm", "nm_per_decade",
+                                      "apparent_barrier_eV", "barrier_top_eV", "barrier_width_nm", "regime"};
+        const bool u_cols = with_u && !u.empty() && !u.front().inputs.empty();
+        if (u_cols)
+            for (const auto& n : u.front().names)
+                for (const char* suffix : {"_stddev", "_ci95_low", "_ci95_high", "_linear_stddev"})
+                    head.push_back(n + suffix);
+        text = csv_line(head);
+        for (std::size_t i = 0; i < results.size(); ++i) {
+            auto j = point_json(results[i]);
+            std::vector<std::string> row{full_precision(j["gap_nm"]), full_precision(j["bias_V"]), full_precision(j["temperature_K"]),
+                                         full_precision(j["current_density_A_per_m2"]), full_precision(j["current_A"]),
+                                         full_precision(j["conductance_S"]), full_precision(j["conductance_G0"]),
+                                         full_precision(j["decay_constant_per_nm"]), full_precision(j["nm_per_decade"]),
+                                         full_precision(j["apparent_barrier_eV"]), full_precision(j["barrier_top_eV"]),
+                                         full_precision(j["barrier_width_nm"]), j["regime"].get<std::string>()};
+            if (u_cols)
+                for (const auto& v : u[i].values)
+                    for (double x : {v.mc_stddev, v.ci95_low, v.ci95_high, v.linear_stddev}) row.push_back(full_precision(x));
+            text += csv_line(row);
         }
     } else {
         text_table t;
         t.headers = {"gap [nm]", "bias [V]", "J [A/m²]", "I [A]", "G [G0]", "κ [1/nm]", "nm/decade", "φ_ap [eV]",
                      "top [eV]", "regime"};
-        for (const auto& r : results) {
-            auto j = point_json(r);
+        for (std::size_t i = 0; i < results.size(); ++i) {
+            auto j = point_json(results[i]);
+            // Uncertainty of the current (output 0 of predict_uncertainty), Monte Carlo when drawn.
+            double sd = std::numeric_limits<double>::quiet_NaN();
+            if (with_u && !u[i].inputs.empty())
+                sd = u[i].samples > 0 ? u[i].values[0].mc_stddev : u[i].values[0].linear_stddev;
             t.rows.push_back({rounded(j["gap_nm"]), rounded(j["bias_V"]), rounded(j["current_density_A_per_m2"]),
-                              rounded(j["current_A"]), rounded(j["conductance_G0"]),
+                              rounded_pm(j["current_A"], sd), rounded(j["conductance_G0"]),
                               rounded(j["decay_constant_per_nm"]), rounded(j["nm_per_decade"]),
                               rounded(j["apparent_barrier_eV"]), rounded(j["barrier_top_eV"]),
                               j["regime"].get<std::string>()});
         }
         text = fmt::format("# {} · T = {} K · image {} · method {} · geometry {}\n", c.source, c.model.temperature_K,
                            to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind)) +
+               (with_u && !u.empty() && !u.front().inputs.empty()
+                    ? (u.front().samples > 0
+                           ? fmt::format("# ± : Monte Carlo standard uncertainty of I, {} draws, seed {} (inputs: {})\n",
+                                         u.front().samples, u.front().seed, fmt::join(u.front().inputs, ", "))
+                           : fmt::format("# ± : linear propagation (inputs: {})\n", fmt::join(u.front().inputs, ", ")))
+                    : std::string()) +
                t.render();
     }
     write_output(a.output, text);
+    if (!a.plot_path.empty()) plot::write_figure(predict_figure(c, gaps, biases, results, a.threads), a.plot_path);
 }
 
 }  // namespace
@@ -116,6 +158,8 @@ void add_predict(CLI::App& app) {
     cmd->add_option("--bias", a->bias, "Sample bias: one value (0.1V, -0.5V), a list or a range FROM..TO")->required();
     cmd->add_option("--points", a->points, "Points per range (default 11)")->check(CLI::Range(2, 1000000));
     cmd->add_option("--threads", a->threads, "Worker threads (default: all cores)")->check(CLI::Range(0, 256));
+    cmd->add_option("--plot", a->plot_path, "Also write a figure: FILE.png, FILE.svg or FILE.pdf");
+    add_uncertainty_options(cmd, a->uncertainty);
     add_output_options(cmd, a->format, a->output);
     cmd->callback([a] { run(*a); });
 }

@@ -5,9 +5,14 @@
 namespace tipgap::cli {
 
 void add_predict(CLI::App& app);
+void add_plan(CLI::App& app);
+void add_table(CLI::App& app);
 
 // tipgap fit: decay constant and apparent barrier height of measured I(z) curves (cmd_fit.cpp).
 void add_fit(CLI::App& app);
+
+// tipgap map: barrier-height maps of a spectroscopy grid (cmd_map.cpp).
+void add_map(CLI::App& app);
 
 // tipgap synth: synthetic curves and grids with their ground truth (cmd_synth.cpp).
 void add_synth(CLI::App& app);

@@ -14,7 +14,10 @@ int main(int argc, char** argv) {
     app.require_subcommand(1, 1);
     app.fallthrough(false);
     tipgap::cli::add_predict(app);
+    tipgap::cli::add_plan(app);
+    tipgap::cli::add_table(app);
     tipgap::cli::add_fit(app);
+    tipgap::cli::add_map(app);
     tipgap::cli::add_synth(app);
     tipgap::cli::add_demo(app);
 

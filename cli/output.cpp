@@ -150,6 +150,46 @@ nlohmann::json config_json(const tipgap::config& c) {
     return j;
 }
 
+void add_uncertainty_json(nlohmann::json& j, const tipgap::uncertainty_summary& u) {
+    if (u.inputs.empty()) return;
+    for (std::size_t k = 0; k < u.names.size(); ++k) {
+        const auto& v = u.values[k];
+        const std::string& n = u.names[k];
+        if (u.samples > 0) {
+            j[n + "_stddev"] = v.mc_stddev;
+            j[n + "_ci95"] = {v.ci95_low, v.ci95_high};
+            j[n + "_mc_mean"] = v.mc_mean;
+        }
+        if (!std::isnan(v.linear_stddev) || !std::isnan(v.linear_ci95_low)) {
+            j[n + "_linear_stddev"] = v.linear_stddev;
+            j[n + "_linear_ci95"] = {v.linear_ci95_low, v.linear_ci95_high};
+        }
+    }
+}
+
+nlohmann::json uncertainty_info_json(const tipgap::uncertainty_summary& u) {
+    nlohmann::json j;
+    j["inputs"] = u.inputs;
+    j["monte_carlo_samples"] = u.samples;
+    j["seed"] = u.seed;
+    j["redrawn"] = u.redrawn;
+    j["failed"] = u.failed;
+    j["coverage"] = "95 % interval: Monte Carlo 2.5 % and 97.5 % quantiles; linear: value ± 1.96 u";
+    return j;
+}
+
+std::string rounded_pm(double value, double u, int digits) {
+    if (std::isnan(u)) return rounded(value, digits);
+    return rounded(value, digits) + " ± " + rounded(u, 2);
+}
+
+void add_uncertainty_options(CLI::App* cmd, tipgap::uncertainty_options& o) {
+    cmd->add_option("--mc-samples", o.samples,
+                    "Monte Carlo draws for the config's input uncertainties (default 400; 0: linear propagation only)")
+        ->check(CLI::Range(0, 1000000));
+    cmd->add_option("--seed", o.seed, "Seed of the Monte Carlo draws (default 1); the same seed gives the same result");
+}
+
 void print_warnings(const std::vector<std::string>& warnings, const std::string& context) {
     for (const auto& w : warnings) {
         if (context.empty()) {

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "tipgap/config.hpp"
+#include "tipgap/uncertainty.hpp"
 
 namespace tipgap::cli {
 
@@ -48,6 +49,19 @@ tipgap::config load_config_or_default(const std::string& path);
 
 // JSON summary of a configuration (for output metadata).
 nlohmann::json config_json(const tipgap::config& c);
+
+// Adds the uncertainty of each output to a point's JSON: NAME_stddev, NAME_ci95 [lo, hi] and
+// NAME_mc_mean (Monte Carlo, when drawn), NAME_linear_stddev and NAME_linear_ci95 (when computed).
+void add_uncertainty_json(nlohmann::json& point, const tipgap::uncertainty_summary& u);
+
+// The "uncertainty" block of a command's JSON: method, inputs, samples, seed, redrawn, failed.
+nlohmann::json uncertainty_info_json(const tipgap::uncertainty_summary& u);
+
+// "value ± u" for tables (rounded); just the value when u is NaN.
+std::string rounded_pm(double value, double u, int digits = 4);
+
+// Adds --mc-samples N and --seed S (Monte Carlo draws for configured input uncertainties).
+void add_uncertainty_options(CLI::App* cmd, tipgap::uncertainty_options& o);
 
 // Prints each warning to stderr as "tipgap: warning: ...".
 void print_warnings(const std::vector<std::string>& warnings, const std::string& context = "");

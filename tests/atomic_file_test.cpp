@@ -9,9 +9,11 @@
 #include <regex>
 #include <sstream>
 #include <string>
+#include <vector>
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include "tipgap/atomic_directory.hpp"
 #include "tipgap/atomic_file.hpp"
 
 namespace fs = std::filesystem;
@@ -99,8 +101,8 @@ TEST(atomic_file, killed_directory_writer_leaves_no_partial_directory) {
     const fs::path target = dir.path / "report";
     const pid_t pid = ::fork();
     if (pid == 0) {
-        tipgap::atomic_directory out(target.string());
-        tipgap::write_file_atomically((fs::path(out.path()) / "a.csv").string(), "1\n");
+        tipgap::atomic_directory out(target.string(), {"a.csv"});
+        tipgap::write_file_atomically(out.file("a.csv"), "1\n");
         ::raise(SIGKILL);
         ::_exit(0);
     }
@@ -121,8 +123,8 @@ TEST(atomic_file, committed_directory_replaces_the_old_one_whole) {
     fs::create_directories(target);
     tipgap::write_file_atomically((target / "old.csv").string(), "old\n");
     {
-        tipgap::atomic_directory out(target.string());
-        tipgap::write_file_atomically((fs::path(out.path()) / "new.csv").string(), "new\n");
+        tipgap::atomic_directory out(target.string(), {"old.csv", "new.csv"});
+        tipgap::write_file_atomically(out.file("new.csv"), "new\n");
         EXPECT_TRUE(fs::exists(target / "old.csv"));  // untouched until commit
         out.commit();
     }
@@ -130,8 +132,8 @@ TEST(atomic_file, committed_directory_replaces_the_old_one_whole) {
     EXPECT_EQ(read_all(target / "new.csv"), "new\n");
     EXPECT_EQ(std::distance(fs::directory_iterator(dir.path), fs::directory_iterator{}), 1);
     {
-        tipgap::atomic_directory abandoned(target.string());  // destroyed without commit
-        tipgap::write_file_atomically((fs::path(abandoned.path()) / "x.csv").string(), "x\n");
+        tipgap::atomic_directory abandoned(target.string(), {"new.csv", "x.csv"});  // destroyed without commit
+        tipgap::write_file_atomically(abandoned.file("x.csv"), "x\n");
     }
     EXPECT_EQ(read_all(target / "new.csv"), "new\n");
     EXPECT_EQ(std::distance(fs::directory_iterator(dir.path), fs::directory_iterator{}), 1);

@@ -19,8 +19,10 @@ demo_report run_demo(const demo_options& o) {
         pts.emplace_back(o.gap_min_m + (o.gap_max_m - o.gap_min_m) * k / (o.gap_points - 1), o.bias_V);
     rep.sweep = predict_points(rep.cfg, pts, o.threads);
 
-    // PLAN: when lib/include/tipgap/plan.hpp lands on main, plan the default setpoint here and set
-    // rep.plan_available (the CLI prints and writes it).
+    // The setpoint ladder a newcomer would try first: one current per decade at the sweep's bias.
+    std::vector<std::pair<double, double>> ladder;
+    for (double current : {10e-12, 100e-12, 1e-9, 10e-9}) ladder.emplace_back(current, o.bias_V);
+    rep.plan = plan_setpoints(rep.cfg, ladder, plan_options{}, o.threads);
 
     std::error_code ec;
     if (!fs::is_directory(o.scans_dir, ec))

@@ -38,6 +38,29 @@ contact_result detect_contact(std::span<const double> z_m, std::span<const doubl
     };
     auto ln_i = [&](std::size_t i) { return std::log(std::max(abs_current[i], std::numeric_limits<double>::min())); };
 
+    // Shortcut for the common case of no contact, with the same answer as the full test below:
+    // with z ascending the trend term is >= 0, so a jump needs some close-half step of ln|I|
+    // above ln 3 itself, i.e. a ratio of currents above 3; a step below 2.9 is clear of ln 3 by
+    // far more than rounding. A plateau needs a run of at least 3 close points near G0. When
+    // neither is possible the median of the slopes (most of this function's cost) is not needed.
+    {
+        bool plateau_possible = false;
+        if (have_bias) {
+            std::size_t run = 0;
+            while (run < n && g0(run) >= plateau_low_G0 && g0(run) <= plateau_high_G0) ++run;
+            plateau_possible = run >= plateau_min_points;
+        }
+        bool step_possible = false;
+        for (std::size_t i = 0; i + 1 < n / 2 + 1 && i + 1 < n; ++i) {
+            const double lo = std::max(abs_current[i + 1], std::numeric_limits<double>::min());
+            if (!(abs_current[i] <= 2.9 * lo)) {
+                step_possible = true;
+                break;
+            }
+        }
+        if (!plateau_possible && !step_possible) return out;
+    }
+
     // Tunnelling trend: median of the point-to-point log slopes above the floor.
     std::vector<double> slopes;
     slopes.reserve(n);

@@ -13,7 +13,7 @@ namespace detail {
 // 1/Φ⁻¹(3/4) (Rousseeuw & Croux, J. Am. Stat. Assoc. 88, 1273 (1993)).
 constexpr double mad_to_sigma = 1.482602218505602;
 
-double median(std::vector<double> v) {
+double median_in_place(std::span<double> v) {
     const std::size_t n = v.size();
     auto mid = v.begin() + static_cast<std::ptrdiff_t>(n / 2);
     std::nth_element(v.begin(), mid, v.end());
@@ -21,6 +21,8 @@ double median(std::vector<double> v) {
     if (n % 2 == 0) m = 0.5 * (m + *std::max_element(v.begin(), mid));
     return m;
 }
+
+double median(std::vector<double> v) { return median_in_place(v); }
 
 double mad(const std::vector<double>& v) {
     const double m = median(v);
@@ -75,28 +77,40 @@ constexpr double flat_tail_ratio = 2.0;
 // A point is above the floor when it exceeds the floor level by 3 σ_I (common practice, no source).
 constexpr double floor_sigmas = 3.0;
 
+noise_estimate detail::noise_from_far_first(std::span<const double> far_first, std::vector<double>& scratch) {
+    const std::size_t n = far_first.size();
+    std::size_t tail_n = std::max(tail_min_points, n / 5);
+    tail_n = std::min(tail_n, std::max<std::size_t>(n / 2, 3));
+    tail_n = std::min(tail_n, n);
+    const std::span<const double> tail = far_first.first(tail_n);
+
+    // scratch holds the first differences, then the tail, then its deviations (no allocation
+    // once it has grown to the tail length).
+    scratch.resize(tail_n);
+    std::span<double> buf(scratch);
+    for (std::size_t k = 1; k < tail_n; ++k) buf[k - 1] = tail[k] - tail[k - 1];
+    std::span<double> diffs = buf.first(tail_n - 1);
+    const double m_diff = median_in_place(diffs);
+    for (double& d : diffs) d = std::abs(d - m_diff);
+    noise_estimate est;
+    est.current_noise_A = mad_to_sigma * median_in_place(diffs) / std::sqrt(2.0);
+    std::copy(tail.begin(), tail.end(), buf.begin());
+    est.tail_offset_A = median_in_place(buf);
+    for (double& d : buf) d = std::abs(d - est.tail_offset_A);
+    const double tail_spread = mad_to_sigma * median_in_place(buf);
+    est.floor_reached = tail_spread < flat_tail_ratio * est.current_noise_A;
+    est.noise_floor_A = floor_sigmas * est.current_noise_A + (est.floor_reached ? std::abs(est.tail_offset_A) : 0.0);
+    return est;
+}
+
 noise_estimate estimate_noise(std::span<const double> z_m, std::span<const double> current_A) {
     const std::size_t n = z_m.size();
     std::vector<std::size_t> order(n);
     std::iota(order.begin(), order.end(), std::size_t{0});
     std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return z_m[a] > z_m[b]; });
-    std::size_t tail_n = std::max(tail_min_points, n / 5);
-    tail_n = std::min(tail_n, std::max<std::size_t>(n / 2, 3));
-    tail_n = std::min(tail_n, n);
-
-    std::vector<double> tail(tail_n), diffs;
-    diffs.reserve(tail_n);
-    for (std::size_t k = 0; k < tail_n; ++k) {
-        tail[k] = current_A[order[k]];
-        if (k > 0) diffs.push_back(tail[k] - tail[k - 1]);
-    }
-    noise_estimate est;
-    est.current_noise_A = detail::mad_to_sigma * detail::mad(diffs) / std::sqrt(2.0);
-    est.tail_offset_A = detail::median(tail);
-    const double tail_spread = detail::mad_to_sigma * detail::mad(tail);
-    est.floor_reached = tail_spread < flat_tail_ratio * est.current_noise_A;
-    est.noise_floor_A = floor_sigmas * est.current_noise_A + (est.floor_reached ? std::abs(est.tail_offset_A) : 0.0);
-    return est;
+    std::vector<double> far_first(n), scratch;
+    for (std::size_t k = 0; k < n; ++k) far_first[k] = current_A[order[k]];
+    return detail::noise_from_far_first(far_first, scratch);
 }
 
 }  // namespace tipgap

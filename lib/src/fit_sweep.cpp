@@ -77,17 +77,6 @@ double apparent_barrier_from_decay(double decay_constant_per_m) {
 
 namespace {
 
-// Without measurable noise (exact synthetic data) the weights still need a σ_I; a tiny fraction
-// of the maximum keeps their shape |I|² without affecting anything else.
-constexpr double noiseless_sigma_fraction = 1e-9;
-// Reweighting passes of the linear fit (weights and selection from the fitted current, which
-// removes the bias of selecting and weighting by the noisy observed current); 3 is ample since the
-// selection settles after the second.
-constexpr int linear_passes = 3;
-// In the reweighted passes a point must still show at least a third of the floor: at the cut
-// (fitted |I| = floor = 3σ) this drops only 2σ downward fluctuations, whose logarithm would be
-// wild.
-constexpr double observed_floor_fraction = 1.0 / 3.0;
 // Default profile window: a fifth of the used points, at least 8 (common practice, no source).
 constexpr std::size_t default_window_min = 8;
 constexpr std::size_t min_window_points = 4;
@@ -109,7 +98,14 @@ line_fit fit_ln(const std::vector<double>& z, const std::vector<double>& a, cons
     return fit_line(x, y, w);
 }
 
-void fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof) {
+}  // namespace
+
+double detail::t_quantile(double dof, double confidence_level) {
+    boost::math::students_t dist(dof);
+    return boost::math::quantile(dist, 0.5 + 0.5 * confidence_level);
+}
+
+void detail::fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof, double t) {
     r.decay_constant_per_m = kappa;
     r.decay_constant_stat_stderr_per_m = kappa_stat_se;
     // Piezo calibration: z scales by (1 ± u), κ by 1/(1 ± u), so a relative standard uncertainty u
@@ -117,8 +113,7 @@ void fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof) {
     const double cal = r.calibration_uncertainty * std::abs(kappa);
     r.decay_constant_stderr_per_m = std::hypot(kappa_stat_se, cal);
     r.degrees_of_freedom = dof;
-    boost::math::students_t dist(dof);
-    r.t_quantile = boost::math::quantile(dist, 0.5 + 0.5 * r.confidence_level);
+    r.t_quantile = t;
     r.decay_constant_ci_low_per_m = kappa - r.t_quantile * r.decay_constant_stderr_per_m;
     r.decay_constant_ci_high_per_m = kappa + r.t_quantile * r.decay_constant_stderr_per_m;
     r.apparent_barrier_J = apparent_barrier_from_decay(kappa);
@@ -130,6 +125,8 @@ void fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof) {
     r.apparent_barrier_ci_high_J = apparent_barrier_from_decay(std::max(std::abs(lo), std::abs(hi)));
     r.length_per_decade_m = kappa != 0.0 ? std::log(10.0) / (2.0 * kappa) : std::numeric_limits<double>::infinity();
 }
+
+namespace {
 
 std::vector<profile_point> local_profile(const std::vector<double>& z, const std::vector<double>& a,
                                          const std::vector<std::size_t>& used, const std::vector<double>& w,
@@ -211,7 +208,7 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
     r.current_noise_estimated = opt.current_noise_A <= 0.0;
     double sigma = r.current_noise_estimated ? est.current_noise_A : opt.current_noise_A;
     if (!(sigma > 0.0)) {
-        sigma = noiseless_sigma_fraction * a_max;
+        sigma = detail::noiseless_sigma_fraction * a_max;
         r.warnings.push_back("the far tail shows no current noise; the weights assume a noise of 1e-9 of the "
                              "maximum current");
     }
@@ -277,14 +274,14 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
     for (std::size_t k = 0; k < used.size(); ++k) w[k] = a[used[k]];
     w = relative_squares(std::move(w));
     line_fit line = fit_ln(z, a, used, w);
-    for (int pass = 1; pass < linear_passes; ++pass) {
+    for (int pass = 1; pass < detail::linear_passes; ++pass) {
         std::vector<std::size_t> next;
         std::vector<double> next_w;
         for (std::size_t i = 0; i < n; ++i) {
             const double fitted = std::exp(line.intercept + line.slope * z[i]);
             // An overflowing extrapolation of the line says nothing about the point's weight.
             if (!std::isfinite(fitted)) continue;
-            if (eligible(i) && fitted >= floor && a[i] >= observed_floor_fraction * floor) {
+            if (eligible(i) && fitted >= floor && a[i] >= detail::observed_floor_fraction * floor) {
                 next.push_back(i);
                 next_w.push_back(fitted);
             }
@@ -332,7 +329,9 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
             ss += d * d;
         }
         r.residual_rms_A = std::sqrt(ss / static_cast<double>(used.size()));
-        fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, static_cast<double>(used.size()) - 2.0);
+        const double dof = static_cast<double>(used.size()) - 2.0;
+        r.reduced_chi_square = line.residual_std * line.residual_std;
+        detail::fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, dof, detail::t_quantile(dof, r.confidence_level));
         if (r.points_below_floor > 0) {
             r.warnings.push_back(fmt::format("{} of {} points lie below the noise floor of {} and were not used",
                                              r.points_below_floor, n, detail::format_current(floor)));
@@ -387,7 +386,8 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         r.r_squared = sst > 0.0 ? 1.0 - of.ssr_A2 / sst : 1.0;
         r.residual_rms_A = std::sqrt(of.ssr_A2 / static_cast<double>(yy.size()));
         r.residual_rms_ln = n_ln > 0 ? std::sqrt(ss_ln / static_cast<double>(n_ln)) : 0.0;
-        fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, static_cast<double>(zz.size()) - 3.0);
+        const double dof = static_cast<double>(zz.size()) - 3.0;
+        detail::fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, detail::t_quantile(dof, r.confidence_level));
     }
 
     // Warnings a careful reader wants next to the numbers.
@@ -414,6 +414,7 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
         hi = std::max(hi, a[i]);
     }
     const double decades = std::log10(hi / lo);
+    r.current_decades_used = decades;
     if (decades < 1.0) {
         r.warnings.push_back(
             fmt::format("the used points span only {:.2g} decades of current; the decay constant is poorly constrained",

@@ -8,8 +8,9 @@
 # land while computing, while writing the temporary and around the rename.
 #
 # To cover a new command, add a scenario at the end: a name, a function that says whether a target
-# is a complete output of that command, and the command line writing to "$target". A directory
-# output (the grid `map`) works the same way: the check function gets the directory.
+# is a complete output of that command, and the command line ending in the option that takes the
+# target (the target path is appended). A directory output (the grid `map`) works the same way:
+# the check function gets the directory.
 # Env: TIPGAP (executable).
 set -euo pipefail
 : "${TIPGAP:?}"
@@ -35,15 +36,16 @@ check_siblings() {
   done
 }
 
-# run_scenario NAME CHECK_FN OLD_CONTENT -- command with "$target"...
+# run_scenario NAME CHECK_FN OLD -- command with "$target"...
 #   CHECK_FN <path> returns 0 when <path> is a complete output.
-#   OLD_CONTENT: text of an old target written before each killed run ("" = no old target).
+#   OLD: the old target put in place before each killed run: "" = none, "dir:<path>" = a copy of
+#   the directory <path>, anything else = a file with that text.
 run_scenario() {
   local name=$1 check=$2 old=$3
   shift 4
   local dir="$tmp/$name" target
   mkdir -p "$dir/full"
-  printf '%s' "$old" > "$dir/old"
+  if [[ "$old" == dir:* ]]; then cp -r "${old#dir:}" "$dir/old"; else printf '%s' "$old" > "$dir/old"; fi
   target="$dir/full/out"
   local t0 t1
   t0=$(now_ns)
@@ -58,7 +60,7 @@ run_scenario() {
     run="$dir/kill-$p"
     mkdir -p "$run"
     target="$run/out"
-    [ -z "$old" ] || cp "$dir/old" "$target"
+    [ -z "$old" ] || cp -r "$dir/old" "$target"
     "$@" "$target" > /dev/null 2>&1 &
     local pid=$!
     sleep "$(awk -v ms="$total_ms" -v p="$p" 'BEGIN { printf "%.3f", ms * p / 100000 }')"
@@ -67,7 +69,7 @@ run_scenario() {
     if [ ! -e "$target" ]; then
       [ -z "$old" ] || fail "$name: killed at $p%: the old output vanished"
       outcome=absent; absent=$((absent + 1))
-    elif [ -n "$old" ] && [ -f "$target" ] && cmp -s "$target" "$dir/old"; then
+    elif [ -n "$old" ] && diff -r "$target" "$dir/old" > /dev/null 2>&1; then
       outcome=old; kept=$((kept + 1))
     elif "$check" "$target"; then
       outcome=complete; complete=$((complete + 1))
@@ -108,5 +110,22 @@ fit_complete() {
   [ -f "$1" ] && "${TIPGAP_PYTHON:-/usr/bin/python3}" -c 'import json,sys; json.load(open(sys.argv[1]))' "$1" 2> /dev/null
 }
 run_scenario fit_replace fit_complete "$old_text" -- "$TIPGAP" fit "$curve" --format json --output
+
+# --- map --output-dir: a directory of maps, complete when every file is there and summary.json
+# parses; killed runs must leave no partial directory, and an old output directory whole.
+grid="$tmp/grid.csv"
+"$TIPGAP" synth --grid 160x160 --points-per-curve 128 --out "$grid" > /dev/null
+map_files="apparent_barrier_eV.csv barrier_histogram.png barrier_map.png decay_constant_per_nm.csv quality.csv
+stderr_apparent_barrier_eV.csv summary.json"
+map_complete() {
+  local d=$1 f
+  [ -d "$d" ] || return 1
+  for f in $map_files; do [ -s "$d/$f" ] || return 1; done
+  [ "$(ls -A "$d" | wc -l)" -eq "$(echo $map_files | wc -w)" ] || return 1
+  "${TIPGAP_PYTHON:-/usr/bin/python3}" -c 'import json,sys; json.load(open(sys.argv[1]))' "$d/summary.json" 2> /dev/null
+}
+"$TIPGAP" map "$grid" --output-dir "$tmp/old_map" --threads 2 --quiet > /dev/null
+run_scenario map_new map_complete "" -- "$TIPGAP" map "$grid" --threads 2 --quiet --output-dir
+run_scenario map_replace map_complete "dir:$tmp/old_map" -- "$TIPGAP" map "$grid" --threads 2 --quiet --output-dir
 
 echo "atomic outputs: all scenarios passed"

@@ -3,7 +3,8 @@
 #   - the exit code is the one in the manifest (2 usage, 3 input, 4 no answer; never 70 or a signal),
 #   - stderr is exactly one line "tipgap: <kind>: ...", at most 400 bytes, containing the expected
 #     fragment, with no exception type names, abort texts or sanitizer reports,
-#   - nothing at all is written to stdout (no half table).
+#   - nothing at all is written to stdout (no half table), and no file or directory appears in the
+#     scratch directory the outputs point into (no partial --output or --output-dir).
 # Manifest columns (tab separated; '#' lines and blank lines are skipped):
 #   file      path under tests/bad_inputs/, or @name for a file this script generates, or - for none
 #   command   arguments after `tipgap` ("(none)" for none); {file} is replaced by the file's path, {tmp}
@@ -36,6 +37,8 @@ header='z [nm],current [nA]'
 { printf 'tip: '; head -c 100000 /dev/zero | tr '\0' '['; echo; } > "$gen/deep_nesting.yaml"
 mkdir -p "$gen/a_directory.yaml" "$gen/a_directory.csv"
 
+: > "$tmp/out"
+: > "$tmp/err"
 pass=0
 failures=0
 fail() {
@@ -62,6 +65,7 @@ while IFS=$'\t' read -r file command expected_exit fragment || [ -n "$file" ]; d
   want=${want//\{tmp\}/$tmp}
   # Word splitting of the command column: arguments hold no spaces except inside '...'.
   eval "args=($cmd)"
+  before=$(ls -A "$tmp")
   set +e
   "$TIPGAP" "${args[@]}" > "$tmp/out" 2> "$tmp/err"
   code=$?
@@ -80,6 +84,9 @@ while IFS=$'\t' read -r file command expected_exit fragment || [ -n "$file" ]; d
     [[ "$err" != *"$bad"* ]] || { fail "$label" "stderr shows '$bad': $err"; continue 2; }
   done
   [ ! -s "$tmp/out" ] || { fail "$label" "wrote $(wc -c < "$tmp/out") bytes to stdout"; continue; }
+  # A refused run writes nothing: no --output file, no --output-dir, no temporary left behind.
+  after=$(ls -A "$tmp")
+  [ "$before" = "$after" ] || { fail "$label" "left files behind in the scratch dir: $(comm -13 <(echo "$before") <(echo "$after") | tr '\n' ' ')"; continue; }
   pass=$((pass + 1))
 done < "$manifest"
 

@@ -27,7 +27,20 @@ for f in prediction.csv fits.csv demo.json prediction.png fit-01_w_au111_clean.p
   [ -s "$tmp/demo/$f" ] || fail "demo did not write $f"
 done
 grep -q "kappa inside its 95% interval for 8 of 8 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
-grep -q "^plan: not available yet" "$tmp/demo.txt" || grep -q "^plan:" "$tmp/demo.txt" || fail "no plan line"
+grep -q "^plan at 0.1 V (setpoint ladder):" "$tmp/demo.txt" || fail "no plan line"
+# The planned ladder: one decade of current per step, and the gap steps equal nm_per_decade
+# (within 5 %: the local slope varies along a 0.1 nm step); about 0.1 nm per decade (common practice).
+"$TIPGAP_PYTHON" - "$tmp/demo/demo.json" <<'PY'
+import json, sys
+plan = json.load(open(sys.argv[1]))["plan"]
+assert [p["current_A"] for p in plan] == [1e-11, 1e-10, 1e-09, 1e-08], plan
+gaps = [p["gap_nm"] for p in plan]
+for a, b, p in zip(gaps, gaps[1:], plan):
+    assert a > b, gaps
+    assert abs((a - b) / p["nm_per_decade"] - 1) < 0.05, (a - b, p["nm_per_decade"])
+    assert 0.08 < p["nm_per_decade"] < 0.13, p
+print("plan ok")
+PY
 
 # 3. Real numbers in the JSON: every fitted kappa against its truth file (inside the stated 95 %
 #    interval, which is t * stderr wide), phi_ap = hbar^2 kappa^2 / 2m (CODATA 2018), and the

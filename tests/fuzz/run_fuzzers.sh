@@ -5,7 +5,7 @@
 #
 # Usage: tests/fuzz/run_fuzzers.sh [seconds per target]     (default 60, or $FUZZ_SECONDS)
 # Env:   FUZZ_BUILD (default build-fuzz), FUZZ_JOBS (build jobs, default 2), FUZZ_TARGETS (default
-#        "fuzz_quantity fuzz_config fuzz_curve_csv").
+#        "fuzz_quantity fuzz_config fuzz_curve_csv fuzz_grid_csv").
 # A finding leaves its input in $FUZZ_BUILD/artifacts/<target>-crash-* (reproduce with
 # `$FUZZ_BUILD/tests/fuzz/<target> <file>`); fix it and add the input to tests/bad_inputs/ (with a
 # cases.tsv row) or to tests/fuzz/seeds/<target>/.
@@ -14,7 +14,7 @@ root="$(cd "$(dirname "$0")/../.." && pwd)"
 seconds="${1:-${FUZZ_SECONDS:-60}}"
 build="${FUZZ_BUILD:-build-fuzz}"
 jobs="${FUZZ_JOBS:-2}"
-targets="${FUZZ_TARGETS:-fuzz_quantity fuzz_config fuzz_curve_csv}"
+targets="${FUZZ_TARGETS:-fuzz_quantity fuzz_config fuzz_curve_csv fuzz_grid_csv}"
 cd "$root"
 
 mkdir -p "$build"
@@ -34,6 +34,7 @@ for t in $targets; do
     fuzz_quantity) extra=(); dict=quantity; max_len=256 ;;
     fuzz_config) extra=("$root/tests/bad_inputs/config"); dict=config; max_len=4096 ;;
     fuzz_curve_csv) extra=("$root/tests/bad_inputs/csv"); dict=curve_csv; max_len=8192 ;;
+    fuzz_grid_csv) extra=("$root/tests/bad_inputs/grid"); dict=curve_csv; max_len=16384 ;;
     *) extra=(); dict=""; max_len=4096 ;;
   esac
   seeds="$root/tests/fuzz/seeds/${t#fuzz_}"

@@ -29,28 +29,6 @@ private:
     bool committed_ = false;
 };
 
-// An output directory being filled. Files go into the hidden sibling "<dir>/.<name>.tmp-<pid>-<n>"
-// (path()); commit() puts it in place of `path` in one rename (an old directory of that name is
-// first renamed aside, then removed). Destroying an uncommitted atomic_directory removes the
-// temporary, so a failed or interrupted run never leaves a partial directory under the target's
-// name. Throws tipgap::error (input) naming the path when the parent is not writable, or when
-// `path` exists and is not a directory.
-class atomic_directory {
-public:
-    explicit atomic_directory(std::string path);
-    atomic_directory(const atomic_directory&) = delete;
-    atomic_directory& operator=(const atomic_directory&) = delete;
-    ~atomic_directory();
-    // The temporary directory to write into (files in it may be written plainly or atomically).
-    const std::string& path() const { return tmp_; }
-    void commit();
-
-private:
-    std::string path_;
-    std::string tmp_;
-    bool committed_ = false;
-};
-
 // Unique temporary sibling name for `path` (used for files and for output directories).
 std::string temporary_sibling(const std::string& path);
 

@@ -11,6 +11,7 @@
 #include "tipgap/curve_io.hpp"
 #include "tipgap/fit.hpp"
 #include "tipgap/model_fit.hpp"
+#include "tipgap/plan.hpp"
 #include "tipgap/predict.hpp"
 #include "tipgap/synth.hpp"
 
@@ -46,8 +47,8 @@ struct demo_report {
     config cfg;                                  // the built-in default
     std::vector<prediction> sweep;               // gap sweep at options.bias_V
     std::vector<demo_curve> curves;              // in file-name order, sweeps in file order
-    // Setpoint planning: to come once `tipgap plan` (tipgap/plan.hpp) is on main.
-    bool plan_available = false;
+    // Setpoint ladder at options.bias_V (10 pA .. 10 nA, one per decade): how far the tip sits.
+    std::vector<plan_point> plan;
     std::vector<std::string> files_without_truth;
 };
 

@@ -1,5 +1,7 @@
 #pragma once
 // From current density to total current: the tip's shape.
+#include <functional>
+
 #include "tipgap/model.hpp"
 
 namespace tipgap {
@@ -29,5 +31,13 @@ double total_current(const model_options& model, const geometry_options& geometr
 // Effective area (m^2) of the contact-anchored geometry: G0 divided by the zero-bias conductance
 // density at the contact distance.
 double contact_anchored_area(const model_options& model, const geometry_options& geometry);
+
+// The paraboloid integral I = 2 pi R ∫_0^inf j(s + u) du (u = r^2 / 2R, so 2 pi r dr = 2 pi R du) for
+// any current density j(gap) that falls off with the gap (Lang 1986, Phys. Rev. B 34, 5947, uses the
+// same local-planar sum over a curved tip). j_of_gap: J (A/m^2) at a gap (m); apex_radius_m: R (m),
+// > 0; gap_m: s (m), > 0; rel_tol: relative accuracy of the integral, [1e-12, 1e-2].
+// For j = J0 e^(-2 kappa s) the result is pi R J(s) / kappa exactly.
+double paraboloid_integral(const std::function<double(double)>& j_of_gap, double apex_radius_m, double gap_m,
+                           double rel_tol);
 
 }  // namespace tipgap

@@ -11,8 +11,34 @@ namespace tipgap::detail {
 
 // Median of a copy of the values (n >= 1).
 double median(std::vector<double> v);
+// Median of the values, reordering them in place (n >= 1); the same value as median().
+double median_in_place(std::span<double> v);
 // Median absolute deviation about the median (n >= 1).
 double mad(const std::vector<double>& v);
+
+// Noise estimate from the far tail of a sweep given farthest point first (see estimate_noise).
+// current_far_first: the sweep's currents ordered by decreasing z, n >= 3; scratch: reused buffer.
+noise_estimate noise_from_far_first(std::span<const double> current_far_first, std::vector<double>& scratch);
+
+// Constants of the linear-model point selection shared by fit_sweep and fit_sweep_fast.
+// Without measurable noise (exact synthetic data) the weights still need a σ_I; a tiny fraction
+// of the maximum keeps their shape |I|² without affecting anything else.
+inline constexpr double noiseless_sigma_fraction = 1e-9;
+// Reweighting passes of the linear fit (weights and selection from the fitted current, which
+// removes the bias of selecting and weighting by the noisy observed current); 3 is ample since the
+// selection settles after the second.
+inline constexpr int linear_passes = 3;
+// In the reweighted passes a point must still show at least a third of the floor: at the cut
+// (fitted |I| = floor = 3σ) this drops only 2σ downward fluctuations, whose logarithm would be
+// wild.
+inline constexpr double observed_floor_fraction = 1.0 / 3.0;
+
+// Student t quantile for a two-sided interval at `confidence_level` with `dof` degrees of freedom.
+double t_quantile(double dof, double confidence_level);
+// Fills the decay-constant and barrier fields of `r` from κ (1/m), its statistical standard error
+// (1/m) and the degrees of freedom; r.calibration_uncertainty and r.confidence_level must be set.
+// t: the t quantile for dof at r.confidence_level (from t_quantile).
+void fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof, double t);
 
 // "2.00 pA", "1.50 nA": a current for messages, 3 significant digits.
 std::string format_current(double current_A);
