@@ -4,7 +4,7 @@
 # Exit status 0 only when every fuzzer ran its whole budget without a finding.
 #
 # Usage: tests/fuzz/run_fuzzers.sh [seconds per target]     (default 60, or $FUZZ_SECONDS)
-# Env:   FUZZ_BUILD (default build-fuzz), FUZZ_JOBS (build jobs, default 2), FUZZ_TARGETS (default
+# Env:   FUZZ_SEED (libFuzzer -seed, default 1), FUZZ_BUILD (default build-fuzz), FUZZ_JOBS (build jobs, default 2), FUZZ_TARGETS (default
 #        "fuzz_quantity fuzz_config fuzz_curve_csv fuzz_grid_csv").
 # A finding leaves its input in $FUZZ_BUILD/artifacts/<target>-crash-* (reproduce with
 # `$FUZZ_BUILD/tests/fuzz/<target> <file>`); fix it and add the input to tests/bad_inputs/ (with a
@@ -15,6 +15,9 @@ seconds="${1:-${FUZZ_SECONDS:-60}}"
 build="${FUZZ_BUILD:-build-fuzz}"
 jobs="${FUZZ_JOBS:-2}"
 targets="${FUZZ_TARGETS:-fuzz_quantity fuzz_config fuzz_curve_csv fuzz_grid_csv}"
+# A fixed libFuzzer seed makes a CI run repeatable (the same inputs in the same order); set
+# FUZZ_SEED=0 for a fresh random sequence when hunting.
+seed="${FUZZ_SEED:-1}"
 cd "$root"
 
 mkdir -p "$build"
@@ -44,7 +47,7 @@ for t in $targets; do
   [ -n "$dict" ] && [ -f "$root/tests/fuzz/$dict.dict" ] && dict_opt=("-dict=$root/tests/fuzz/$dict.dict")
   echo "== $t: ${seconds}s"
   set +e
-  "$build/tests/fuzz/$t" -max_total_time="$seconds" -max_len="$max_len" -timeout=10 -rss_limit_mb=2048 \
+  "$build/tests/fuzz/$t" -seed="$seed" -max_total_time="$seconds" -max_len="$max_len" -timeout=10 -rss_limit_mb=2048 \
     -print_final_stats=1 -artifact_prefix="$build/artifacts/$t-" "${dict_opt[@]}" \
     "$work" "$seeds" "${extra[@]}" > "$build/$t.log" 2>&1
   rc=$?
