@@ -14,6 +14,9 @@ SAN_LONG_LINE_BYTES ?= 67108864
 # Not run under the sanitizers: the SciPy cross-checks (the same binary's numbers, checked in the
 # Release step; minutes under ASan) and the install test (an outside project cannot link an
 # ASan-instrumented static library without the sanitizer runtime).
+# -O1 -g1 compiles the sanitizer build much faster than -O2 -g and keeps function names and line
+# tables in the reports; the numbers are the same (no -ffast-math, no FMA contraction on x86-64).
+SAN_OPT_FLAGS ?= -O1 -g1 -DNDEBUG
 SAN_EXCLUDE ?= ^scipy\.|^cli\.install_consumer$$
 JOBS ?= $(shell nproc)
 DEMO_OUT ?= tipgap-demo
@@ -50,7 +53,8 @@ check-release: build
 	ctest --test-dir $(BUILD) --output-on-failure -j $(JOBS)
 
 check-sanitize: deps
-	cmake -S . -B $(SAN_BUILD) -DCMAKE_BUILD_TYPE=RelWithDebInfo -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF
+	cmake -S . -B $(SAN_BUILD) -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_FLAGS_RELWITHDEBINFO="$(SAN_OPT_FLAGS)" \
+	  -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF
 	cmake --build $(SAN_BUILD) -j $(JOBS)
 	ASAN_OPTIONS=detect_leaks=1:abort_on_error=1 UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
 	  LSAN_OPTIONS=suppressions=$(CURDIR)/tests/sanitizer/lsan.supp:print_suppressions=0 \
