@@ -12,11 +12,11 @@
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/atomic_directory.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/demo.hpp"
-#include "tipgap/fit_plot.hpp"
-#include "tipgap/plot.hpp"
+#include "tipgap/io/atomic_directory.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/demo/demo.hpp"
+#include "tipgap/figures/fit_plot.hpp"
+#include "tipgap/plot/plot.hpp"
 
 #ifndef TIPGAP_DEMO_SCANS
 #define TIPGAP_DEMO_SCANS "demo_scans"

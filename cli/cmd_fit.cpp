@@ -11,14 +11,14 @@
 #include "commands.hpp"
 #include "fit_flags.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/curve_io.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/fit.hpp"
-#include "tipgap/fit_plot.hpp"
-#include "tipgap/model_fit.hpp"
-#include "tipgap/plot.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/figures/fit_plot.hpp"
+#include "tipgap/fit/model_fit.hpp"
+#include "tipgap/plot/plot.hpp"
+#include "tipgap/core/units.hpp"
 
 namespace tipgap::cli {
 namespace {

@@ -15,12 +15,12 @@
 #include "commands.hpp"
 #include "fit_flags.hpp"
 #include "output.hpp"
-#include "tipgap/atomic_directory.hpp"
-#include "tipgap/atomic_file.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/map.hpp"
-#include "tipgap/plot.hpp"
+#include "tipgap/io/atomic_directory.hpp"
+#include "tipgap/io/atomic_file.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/grid/map.hpp"
+#include "tipgap/plot/plot.hpp"
 
 namespace tipgap::cli {
 namespace {

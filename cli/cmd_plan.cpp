@@ -5,12 +5,12 @@
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/figures.hpp"
-#include "tipgap/plan.hpp"
-#include "tipgap/plot.hpp"
-#include "tipgap/sweep.hpp"
-#include "tipgap/uncertainty.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/figures/figures.hpp"
+#include "tipgap/plan/plan.hpp"
+#include "tipgap/plot/plot.hpp"
+#include "tipgap/plan/sweep.hpp"
+#include "tipgap/plan/uncertainty.hpp"
 
 namespace tipgap::cli {
 namespace {

@@ -4,13 +4,13 @@
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/figures.hpp"
-#include "tipgap/plot.hpp"
-#include "tipgap/predict.hpp"
-#include "tipgap/sweep.hpp"
-#include "tipgap/uncertainty.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/figures/figures.hpp"
+#include "tipgap/plot/plot.hpp"
+#include "tipgap/plan/predict.hpp"
+#include "tipgap/plan/sweep.hpp"
+#include "tipgap/plan/uncertainty.hpp"
 
 namespace tipgap::cli {
 namespace {

@@ -8,10 +8,10 @@
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/synth.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/synth/synth.hpp"
+#include "tipgap/core/units.hpp"
 
 namespace tipgap::cli {
 namespace {

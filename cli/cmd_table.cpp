@@ -4,9 +4,9 @@
 
 #include "commands.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/reference_table.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/plan/reference_table.hpp"
+#include "tipgap/core/units.hpp"
 
 namespace tipgap::cli {
 namespace {

@@ -7,7 +7,7 @@
 #include <exception>
 #include <string>
 
-#include "tipgap/error.hpp"
+#include "tipgap/core/error.hpp"
 
 namespace tipgap::cli {
 

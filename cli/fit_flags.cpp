@@ -4,8 +4,8 @@
 #include <fmt/format.h>
 #include <utility>
 
-#include "tipgap/error.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/core/units.hpp"
 
 namespace tipgap::cli {
 

@@ -4,8 +4,8 @@
 #include <CLI/CLI.hpp>
 #include <string>
 
-#include "tipgap/fit.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/core/units.hpp"
 
 namespace tipgap::cli {
 

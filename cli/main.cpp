@@ -6,7 +6,7 @@
 
 #include "commands.hpp"
 #include "errors.hpp"
-#include "tipgap/error.hpp"
+#include "tipgap/core/error.hpp"
 
 int main(int argc, char** argv) {
     CLI::App app{"tipgap: tunnelling-gap model, setpoint planner and current-distance fitter for STM users"};

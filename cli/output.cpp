@@ -5,9 +5,9 @@
 #include <cstdio>
 #include <fmt/format.h>
 
-#include "tipgap/atomic_file.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/constants.hpp"
+#include "tipgap/io/atomic_file.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/core/constants.hpp"
 
 namespace tipgap::cli {
 

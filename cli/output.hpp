@@ -6,8 +6,8 @@
 #include <string_view>
 #include <vector>
 
-#include "tipgap/config.hpp"
-#include "tipgap/uncertainty.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/plan/uncertainty.hpp"
 
 namespace tipgap::cli {
 

@@ -13,8 +13,8 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
-#include "tipgap/atomic_directory.hpp"
-#include "tipgap/atomic_file.hpp"
+#include "tipgap/io/atomic_directory.hpp"
+#include "tipgap/io/atomic_file.hpp"
 
 namespace fs = std::filesystem;
 

@@ -8,9 +8,9 @@
 #include <cmath>
 #include <numbers>
 
-#include "tipgap/closed_forms.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
+#include "tipgap/model/closed_forms.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
 
 using namespace tipgap;
 using std::numbers::pi;

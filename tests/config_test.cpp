@@ -1,8 +1,8 @@
 // Configuration loading: the contract keys, materials defaults, uncertainties and exact errors.
 #include <gtest/gtest.h>
 
-#include "tipgap/config.hpp"
-#include "tipgap/constants.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
 
 using namespace tipgap;
 

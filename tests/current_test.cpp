@@ -4,8 +4,8 @@
 #include <cmath>
 #include <numbers>
 
-#include "tipgap/constants.hpp"
-#include "tipgap/current.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/model/current.hpp"
 
 using namespace tipgap;
 

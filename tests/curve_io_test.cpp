@@ -7,9 +7,9 @@
 #include <fstream>
 #include <string>
 
-#include "detail/csv_scan.hpp"
-#include "tipgap/curve_io.hpp"
-#include "tipgap/error.hpp"
+#include "io/detail/csv_scan.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/core/error.hpp"
 
 using namespace tipgap;
 

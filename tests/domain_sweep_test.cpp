@@ -13,10 +13,10 @@
 #include <string>
 #include <vector>
 
-#include "tipgap/config.hpp"
-#include "tipgap/current.hpp"
-#include "tipgap/predict.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/model/current.hpp"
+#include "tipgap/plan/predict.hpp"
+#include "tipgap/core/units.hpp"
 
 using namespace tipgap;
 

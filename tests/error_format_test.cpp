@@ -7,9 +7,9 @@
 #include <string>
 #include <vector>
 
-#include "tipgap/error.hpp"
-#include "tipgap/fit.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/core/units.hpp"
 
 using namespace tipgap;
 

@@ -8,11 +8,11 @@
 #include <iterator>
 #include <unistd.h>
 
-#include "tipgap/config.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/figures.hpp"
-#include "tipgap/plan.hpp"
-#include "tipgap/predict.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/figures/figures.hpp"
+#include "tipgap/plan/plan.hpp"
+#include "tipgap/plan/predict.hpp"
 
 using namespace tipgap;
 namespace fs = std::filesystem;

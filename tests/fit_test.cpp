@@ -2,7 +2,7 @@
 // coverage on seeded synthetic curves, noise floor, saturation, contact and sweep handling.
 #include <gtest/gtest.h>
 
-#include "detail/normal_source.hpp"
+#include "synth/detail/normal_source.hpp"
 
 #include <cmath>
 #include <cstdio>
@@ -16,10 +16,10 @@
 
 #include <fmt/format.h>
 
-#include "detail/csv_scan.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/curve_io.hpp"
-#include "tipgap/fit.hpp"
+#include "io/detail/csv_scan.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/fit/fit.hpp"
 
 using namespace tipgap;
 

@@ -7,10 +7,10 @@
 #include <limits>
 #include <numbers>
 
-#include "tipgap/config.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/current.hpp"
-#include "tipgap/geometry.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/model/current.hpp"
+#include "tipgap/model/geometry.hpp"
 
 using namespace tipgap;
 

@@ -17,13 +17,13 @@
 #include <string>
 #include <vector>
 
-#include "detail/csv_scan.hpp"
-#include "tipgap/atomic_directory.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/fit.hpp"
-#include "tipgap/grid.hpp"
-#include "tipgap/map.hpp"
+#include "io/detail/csv_scan.hpp"
+#include "tipgap/io/atomic_directory.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/grid/grid.hpp"
+#include "tipgap/grid/map.hpp"
 
 namespace {
 

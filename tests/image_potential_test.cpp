@@ -6,9 +6,9 @@
 #include <cmath>
 #include <numbers>
 
-#include "detail/image_series.hpp"
-#include "tipgap/barrier.hpp"
-#include "tipgap/constants.hpp"
+#include "model/detail/image_series.hpp"
+#include "tipgap/model/barrier.hpp"
+#include "tipgap/core/constants.hpp"
 
 using namespace tipgap;
 

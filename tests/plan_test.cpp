@@ -6,13 +6,13 @@
 #include <string>
 #include <tuple>
 
-#include "tipgap/config.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/geometry.hpp"
-#include "tipgap/plan.hpp"
-#include "tipgap/predict.hpp"
-#include "tipgap/warnings.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/model/geometry.hpp"
+#include "tipgap/plan/plan.hpp"
+#include "tipgap/plan/predict.hpp"
+#include "tipgap/plan/warnings.hpp"
 
 using namespace tipgap;
 

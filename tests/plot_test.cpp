@@ -15,9 +15,9 @@
 #include <unistd.h>
 #include <vector>
 
-#include "detail/plot_style.hpp"
-#include "tipgap/error.hpp"
-#include "tipgap/plot.hpp"
+#include "plot/detail/plot_style.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/plot/plot.hpp"
 
 using namespace tipgap;
 using namespace tipgap::plot;

@@ -8,9 +8,9 @@
 
 #include <cmath>
 
-#include "tipgap/closed_forms.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/wkb.hpp"
+#include "tipgap/model/closed_forms.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/model/wkb.hpp"
 
 using namespace tipgap;
 

@@ -13,10 +13,10 @@
 
 #include <fmt/format.h>
 
-#include "tipgap/constants.hpp"
-#include "tipgap/fit.hpp"
-#include "tipgap/model_fit.hpp"
-#include "tipgap/synth.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/fit/model_fit.hpp"
+#include "tipgap/synth/synth.hpp"
 
 using namespace tipgap;
 namespace fs = std::filesystem;

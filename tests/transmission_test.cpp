@@ -6,9 +6,9 @@
 #include <boost/math/quadrature/tanh_sinh.hpp>
 #include <cmath>
 
-#include "detail/wkb_core.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/transmission.hpp"
+#include "model/detail/wkb_core.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/model/transmission.hpp"
 
 using namespace tipgap;
 

@@ -5,9 +5,9 @@
 #include <boost/math/special_functions/erf.hpp>
 #include <cmath>
 
-#include "tipgap/config.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/uncertainty.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/plan/uncertainty.hpp"
 
 using namespace tipgap;
 

@@ -3,8 +3,8 @@
 
 #include <cmath>
 
-#include "tipgap/constants.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/units.hpp"
 
 using namespace tipgap;
 

@@ -11,8 +11,8 @@
 #include <random>
 #include <unistd.h>
 
-#include "tipgap/fit.hpp"
-#include "tipgap/grid.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/grid/grid.hpp"
 
 namespace {
 

@@ -18,8 +18,8 @@ target_link_libraries(consumer PRIVATE tipgap::core)
 CM
 cat > "$tmp/consumer/main.cpp" <<'CPP'
 #include <cstdio>
-#include "tipgap/config.hpp"
-#include "tipgap/current.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/model/current.hpp"
 int main() {
     auto c = tipgap::default_config();
     double j = tipgap::current_density(c.model, 0.6e-9, 0.1);

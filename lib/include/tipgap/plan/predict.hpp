@@ -1,0 +1,34 @@
+#pragma once
+// Forward predictions at many (gap, bias) points: current density, total current, derived
+// quantities and operating warnings. Parallel over points; results do not depend on thread count.
+#include <string>
+#include <functional>
+#include <utility>
+#include <vector>
+
+#include "tipgap/config/config.hpp"
+#include "tipgap/model/current.hpp"
+
+namespace tipgap {
+
+struct prediction {
+    point_quantities q;                 // planar quantities (J, kappa, phi_ap, regime, ...)
+    double current_A = 0;               // total current for the configured geometry (A)
+    double conductance_S = 0;           // I/V (S); dI/dV at V = 0
+    double conductance_G0 = 0;          // conductance_S / G0
+    std::vector<std::string> warnings;  // operating warnings (near contact, field emission, ...)
+};
+
+// Throws tipgap::error (input) with key `gap_key` / `bias_key` when gap_m <= 0 or |bias_V| exceeds
+// the configured bias limit.
+void validate_operating_point(const model_options& model, double gap_m, double bias_V, const std::string& gap_key,
+                              const std::string& bias_key);
+
+// points: (gap_m, bias_V) pairs; threads: worker count (0 = all cores).
+std::vector<prediction> predict_points(const config& c, const std::vector<std::pair<double, double>>& points,
+                                       int threads = 0);
+
+// Runs f(i) for i in [0, n) on `threads` workers (0 = hardware concurrency); exceptions propagate.
+void parallel_for(std::size_t n, int threads, const std::function<void(std::size_t)>& f);
+
+}  // namespace tipgap

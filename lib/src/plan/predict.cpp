@@ -1,0 +1,97 @@
+#include "tipgap/plan/predict.hpp"
+
+#include <atomic>
+#include <cmath>
+#include <exception>
+#include <fmt/format.h>
+#include <functional>
+#include <mutex>
+#include <thread>
+
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
+#include "tipgap/model/geometry.hpp"
+#include "tipgap/plan/warnings.hpp"
+
+namespace tipgap {
+
+void validate_operating_point(const model_options& m, double gap, double bias, const std::string& gap_key,
+                              const std::string& bias_key) {
+    location w;
+    if (!(std::isfinite(gap) && gap > 0.0)) {
+        w.key = gap_key;
+        throw_input(w, fmt::format("gap {:g} nm is not positive; expected a gap in (0, 100] nm", gap * 1e9));
+    }
+    if (gap > 100e-9) {
+        w.key = gap_key;
+        throw_input(w, fmt::format("gap {:g} nm is beyond the model's range; expected a gap in (0, 100] nm",
+                                   gap * 1e9));
+    }
+    if (!(std::isfinite(bias) && std::abs(bias) <= m.bias_limit_V)) {
+        w.key = bias_key;
+        throw_input(w, fmt::format("|bias| {:g} V exceeds the configured bias_limit; expected |bias| <= {:g} V "
+                                   "(raise bias_limit in the configuration to go further)",
+                                   std::abs(bias), m.bias_limit_V));
+    }
+}
+
+void parallel_for(std::size_t n, int threads, const std::function<void(std::size_t)>& f) {
+    unsigned hw = std::max(1u, std::thread::hardware_concurrency());
+    std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : hw;
+    workers = std::min(workers, n);
+    if (workers <= 1) {
+        for (std::size_t i = 0; i < n; ++i) f(i);
+        return;
+    }
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex m;
+    auto work = [&] {
+        for (;;) {
+            std::size_t i = next.fetch_add(1);
+            if (i >= n) return;
+            try {
+                f(i);
+            } catch (...) {
+                std::lock_guard<std::mutex> lock(m);
+                if (!failure) failure = std::current_exception();
+                next = n;
+                return;
+            }
+        }
+    };
+    std::vector<std::thread> pool;
+    for (std::size_t t = 0; t < workers; ++t) pool.emplace_back(work);
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
+}
+
+std::vector<prediction> predict_points(const config& c, const std::vector<std::pair<double, double>>& points,
+                                       int threads) {
+    for (const auto& [s, V] : points) validate_operating_point(c.model, s, V, "gap", "bias");
+    std::vector<prediction> out(points.size());
+    // Planar and contact-anchored currents are J times a fixed area: reuse J, compute the area once.
+    const bool fixed_area = c.geometry.kind != geometry_kind::paraboloid;
+    const double area = c.geometry.kind == geometry_kind::planar ? c.geometry.area_m2
+                        : fixed_area                              ? contact_anchored_area(c.model, c.geometry)
+                                                                  : 0.0;
+    parallel_for(points.size(), threads, [&](std::size_t i) {
+        auto [s, V] = points[i];
+        prediction& p = out[i];
+        p.q = evaluate_point(c.model, s, V);
+        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : total_current(c.model, c.geometry, s, V);
+        if (V != 0.0) {
+            p.conductance_S = p.current_A / V;
+        } else if (fixed_area) {
+            p.conductance_S = area * p.q.differential_conductance_density_S_per_m2;
+        } else {
+            const double dV = 1e-3;
+            p.conductance_S = total_current(c.model, c.geometry, s, dV) / dV;
+        }
+        p.conductance_G0 = p.conductance_S / si::conductance_quantum;
+        p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
+    });
+    return out;
+}
+
+}  // namespace tipgap

@@ -1,0 +1,42 @@
+#include "tipgap/plan/sweep.hpp"
+
+#include <cmath>
+#include <fmt/format.h>
+
+#include "tipgap/core/error.hpp"
+
+namespace tipgap {
+
+bool is_range(std::string_view text) { return text.find("..") != std::string_view::npos; }
+
+std::vector<double> parse_sweep(std::string_view text, dimension d, int points, spacing sp, const std::string& option) {
+    location w;
+    w.key = option;
+    std::vector<double> out;
+    if (std::size_t dots = text.find(".."); dots != std::string_view::npos) {
+        double a = parse_quantity(text.substr(0, dots), d, w);
+        double b = parse_quantity(text.substr(dots + 2), d, w);
+        if (points < 2) throw error(error_kind::usage, w, fmt::format("a range needs --points of at least 2 (got {})", points));
+        if (points > 1000000) throw error(error_kind::usage, w, "more than 1,000,000 points in one range");
+        if (sp == spacing::logarithmic && !(a * b > 0)) {
+            throw_input(w, "a logarithmic range needs both ends non-zero and of the same sign");
+        }
+        for (int i = 0; i < points; ++i) {
+            double t = static_cast<double>(i) / (points - 1);
+            double v = sp == spacing::linear ? a + (b - a) * t : a * std::pow(b / a, t);
+            out.push_back(i == points - 1 ? b : v);
+        }
+        return out;
+    }
+    std::size_t start = 0;
+    while (start <= text.size()) {
+        std::size_t comma = text.find(',', start);
+        std::string_view item = text.substr(start, comma == std::string_view::npos ? std::string_view::npos : comma - start);
+        out.push_back(parse_quantity(item, d, w));
+        if (comma == std::string_view::npos) break;
+        start = comma + 1;
+    }
+    return out;
+}
+
+}  // namespace tipgap
