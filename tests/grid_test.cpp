@@ -17,6 +17,8 @@
 #include <string>
 #include <vector>
 
+#include "fit/detail/fit_fast.hpp"
+#include "grid/detail/pixel_quality.hpp"
 #include "io/detail/csv_scan.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/core/constants.hpp"

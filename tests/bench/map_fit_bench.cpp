@@ -11,6 +11,7 @@
 #include <random>
 #include <unistd.h>
 
+#include "fit/detail/fit_fast.hpp"
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/grid/grid.hpp"
 

@@ -5,9 +5,8 @@
 #include <cmath>
 #include <fmt/format.h>
 #include <limits>
-#include <numeric>
 
-#include "fit/detail/fit_internal.hpp"
+#include "fit/detail/point_selection.hpp"
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -81,19 +80,12 @@ namespace {
 constexpr std::size_t default_window_min = 8;
 constexpr std::size_t min_window_points = 4;
 
-struct linear_outcome {
-    line_fit line;
-    std::vector<std::size_t> used;  // indices into the sorted sweep
-    std::vector<double> weights;    // of the used points
-};
-
-// Weighted fit of ln|I| over the selected indices.
-line_fit fit_ln(const std::vector<double>& z, const std::vector<double>& a, const std::vector<std::size_t>& idx,
-                const std::vector<double>& w) {
+// The weighted line of ln|I| over the points idx by SVD (fit_line).
+line_fit svd_line(const detail::sorted_sweep& s, std::span<const std::size_t> idx, std::span<const double> w) {
     std::vector<double> x(idx.size()), y(idx.size());
     for (std::size_t k = 0; k < idx.size(); ++k) {
-        x[k] = z[idx[k]];
-        y[k] = std::log(a[idx[k]]);
+        x[k] = s.z[idx[k]];
+        y[k] = s.ln_abs_current[idx[k]];
     }
     return fit_line(x, y, w);
 }
@@ -128,20 +120,20 @@ void detail::fill_decay(fit_result& r, double kappa, double kappa_stat_se, doubl
 
 namespace {
 
-std::vector<profile_point> local_profile(const std::vector<double>& z, const std::vector<double>& a,
-                                         const std::vector<std::size_t>& used, const std::vector<double>& w,
-                                         const fit_options& opt, const contact_result& contact,
+// The φ_ap(z) profile: the weighted line over each window of consecutive used points.
+std::vector<profile_point> local_profile(const fit_workspace& ws, const fit_options& opt, const contact_result& contact,
                                          std::vector<std::string>& warnings) {
+    const std::vector<double>& z = ws.sweep.z;
+    const std::span<const std::size_t> used(ws.used);
+    const std::span<const double> w(ws.weights);
     std::vector<profile_point> out;
     const std::size_t n = used.size();
     auto one = [&](std::size_t begin, std::size_t end) {
-        std::vector<std::size_t> idx(used.begin() + static_cast<std::ptrdiff_t>(begin),
-                                     used.begin() + static_cast<std::ptrdiff_t>(end));
-        std::vector<double> ww(w.begin() + static_cast<std::ptrdiff_t>(begin), w.begin() + static_cast<std::ptrdiff_t>(end));
+        const std::span<const std::size_t> idx = used.subspan(begin, end - begin);
         // A window whose points share one z (repeated piezo steps) has no slope: skip it rather
         // than report an infinite one.
         if (!(z[idx.back()] > z[idx.front()])) return;
-        const line_fit l = fit_ln(z, a, idx, ww);
+        const line_fit l = svd_line(ws.sweep, idx, w.subspan(begin, end - begin));
         profile_point p;
         double zs = 0.0;
         for (std::size_t i : idx) zs += z[i];
@@ -178,225 +170,96 @@ std::vector<profile_point> local_profile(const std::vector<double>& z, const std
     return out;
 }
 
-}  // namespace
-
-fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options& opt, const location& where) {
-    opt.validate();
-    const std::size_t n = sweep.z_m.size();
-    if (n < 3) throw_input(where, fmt::format("the sweep has only {} points; a fit needs at least 3", n));
-
-    // Work on the sweep sorted by z (closest first); approach sweeps arrive reversed.
-    std::vector<std::size_t> order(n);
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t i, std::size_t j) { return sweep.z_m[i] < sweep.z_m[j]; });
-    std::vector<double> z(n), current(n), a(n);
-    for (std::size_t k = 0; k < n; ++k) {
-        z[k] = sweep.z_m[order[k]];
-        current[k] = sweep.current_A[order[k]];
-        a[k] = std::abs(current[k]);
+// fit_sweep's input errors for a linear selection that did not give a line.
+void throw_unless_fitted(detail::linear_status status, const fit_workspace& ws, const detail::point_selection& sel,
+                         const location& where) {
+    const std::vector<std::size_t>& used = ws.used;
+    switch (status) {
+        case detail::linear_status::fitted: return;
+        case detail::linear_status::too_few_points:
+            throw_input(where, fmt::format("only {} of {} points lie above the noise floor of {}{}{}; a fit needs at "
+                                           "least 3",
+                                           used.size(), ws.sweep.z.size(), detail::format_current(sel.noise_floor_A),
+                                           sel.saturation_A > 0.0 ? " and below the saturation at " : "",
+                                           sel.saturation_A > 0.0 ? detail::format_current(sel.saturation_A) : ""));
+        case detail::linear_status::no_spread_in_z:
+            throw_input(where, fmt::format("all {} points used for the fit have the same z ({:g} nm); expected a curve "
+                                           "over a range of z",
+                                           used.size(), ws.sweep.z[used.front()] / 1e-9));
+        case detail::linear_status::singular:
+            throw_input(where, fmt::format("the straight-line fit of ln|I| against z over {} points is singular; "
+                                           "expected points that spread over z with comparable currents",
+                                           used.size()));
     }
-    const double a_max = *std::max_element(a.begin(), a.end());
+}
 
-    fit_result r;
-    r.model = opt.model;
-    r.direction = sweep.direction;
-    r.points_total = n;
-    r.confidence_level = opt.confidence_level;
-    r.calibration_uncertainty = opt.calibration_uncertainty;
-
-    const noise_estimate est = estimate_noise(z, current);
-    r.current_noise_estimated = opt.current_noise_A <= 0.0;
-    double sigma = r.current_noise_estimated ? est.current_noise_A : opt.current_noise_A;
-    if (!(sigma > 0.0)) {
-        sigma = detail::noiseless_sigma_fraction * a_max;
-        r.warnings.push_back("the far tail shows no current noise; the weights assume a noise of 1e-9 of the "
-                             "maximum current");
-    }
-    r.current_noise_A = sigma;
-    r.noise_floor_estimated = opt.noise_floor_A <= 0.0;
-    const double floor = r.noise_floor_estimated ? est.noise_floor_A : opt.noise_floor_A;
-    r.noise_floor_A = floor;
-
-    r.saturation_detected = false;
-    double sat = opt.saturation_A;
-    if (sat <= 0.0) {
-        sat = detail::detect_saturation(a, sigma);
-        r.saturation_detected = sat > 0.0;
-    }
-    r.saturation_A = sat;
-
-    r.contact = detail::detect_contact(z, a, floor, bias_V, opt.contact_distance_m);
-    const std::size_t first = r.contact.points_in_contact;
-    // A conductance plateau is flat too: a "flat top" that lies wholly inside the contact is the
-    // contact, not the amplifier.
-    if (r.saturation_detected) {
-        bool any = false;
-        for (std::size_t i = first; i < n && !any; ++i) any = a[i] >= sat;
-        if (!any) {
-            r.saturation_detected = false;
-            r.saturation_A = sat = 0.0;
+// The offset model over every usable point (outside contact, below saturation, zero current
+// included), started from the linear line.
+void record_offset_fit(fit_result& r, const fit_workspace& ws, const detail::point_selection& sel, const line_fit& line,
+                       const fit_options& opt, const location& where) {
+    const detail::sorted_sweep& sw = ws.sweep;
+    std::vector<double> zz, yy;
+    double sign_sum = 0.0;
+    r.used_rows.clear();
+    for (std::size_t i = 0; i < sw.z.size(); ++i) {
+        if (i >= sel.contact.points_in_contact && (sel.saturation_A <= 0.0 || sw.abs_current[i] < sel.saturation_A)) {
+            r.used_rows.push_back(sw.order[i]);
+            zz.push_back(sw.z[i]);
+            yy.push_back(sw.current[i]);
+            sign_sum += sw.current[i];
         }
     }
-    auto eligible = [&](std::size_t i) { return i >= first && (sat <= 0.0 || a[i] < sat) && a[i] > 0.0; };
-    for (std::size_t i = first; i < n; ++i) {
-        if (sat > 0.0 && a[i] >= sat) ++r.points_saturated;
-        if (a[i] < floor) ++r.points_below_floor;
+    if (zz.size() < 4) {
+        throw_input(where, fmt::format("only {} points lie below saturation and outside contact; the offset "
+                                       "model needs at least 4",
+                                       zz.size()));
     }
+    // Fit the current with the sign of the signal so that a is positive.
+    const double s = sign_sum < 0.0 ? -1.0 : 1.0;
+    for (double& v : yy) v *= s;
+    const double z_ref = zz.front();
+    const double a0 = std::exp(line.intercept + line.slope * z_ref);
+    const double c0 = sel.noise.floor_reached ? s * sel.noise.tail_offset_A : 0.0;
+    const detail::offset_fit of = detail::fit_offset_model(zz, yy, z_ref, a0, -line.slope, c0, opt.max_evaluations);
+    r.z_ref_m = z_ref;
+    r.iterations = of.evaluations;
+    r.status = of.converged ? fit_status::converged : fit_status::not_converged;
+    r.message = of.message;
+    if (!of.converged) r.warnings.push_back("the offset model did not converge: " + of.message);
+    r.points_used = zz.size();
+    r.prefactor_A = of.amplitude_A;
+    r.prefactor_stderr_A = of.amplitude_stderr_A;
+    r.offset_A = s * of.offset_A;
+    r.offset_stderr_A = of.offset_stderr_A;
+    double mean = 0.0;
+    for (double v : yy) mean += v;
+    mean /= static_cast<double>(yy.size());
+    double sst = 0.0, ss_ln = 0.0;
+    std::size_t n_ln = 0;
+    for (std::size_t k = 0; k < yy.size(); ++k) {
+        sst += (yy[k] - mean) * (yy[k] - mean);
+        const double m = of.amplitude_A * std::exp(-of.rate_per_m * (zz[k] - z_ref)) + of.offset_A;
+        if (yy[k] > 0.0 && m > 0.0) {
+            ss_ln += std::pow(std::log(yy[k]) - std::log(m), 2);
+            ++n_ln;
+        }
+    }
+    r.r_squared = sst > 0.0 ? 1.0 - of.ssr_A2 / sst : 1.0;
+    r.residual_rms_A = std::sqrt(of.ssr_A2 / static_cast<double>(yy.size()));
+    r.residual_rms_ln = n_ln > 0 ? std::sqrt(ss_ln / static_cast<double>(n_ln)) : 0.0;
+    const double dof = static_cast<double>(zz.size()) - 3.0;
+    detail::fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, detail::t_quantile(dof, r.confidence_level));
+}
 
-    // Linear model (also the starting point of the offset model).
-    std::vector<std::size_t> used;
-    for (std::size_t i = 0; i < n; ++i) {
-        if (eligible(i) && a[i] >= floor) used.push_back(i);
-    }
-    if (used.size() < 3) {
-        throw_input(where, fmt::format("only {} of {} points lie above the noise floor of {}{}{}; a fit needs at "
-                                       "least 3",
-                                       used.size(), n, detail::format_current(floor),
-                                       sat > 0.0 ? " and below the saturation at " : "",
-                                       sat > 0.0 ? detail::format_current(sat) : ""));
-    }
-    // z is sorted, so the used points span [z[used.front()], z[used.back()]]. Without a spread in z
-    // the slope of ln|I| is undefined (the least-squares problem is singular).
-    if (!(z[used.back()] > z[used.front()])) {
-        throw_input(where, fmt::format("all {} points used for the fit have the same z ({:g} nm); expected a curve "
-                                       "over a range of z",
-                                       used.size(), z[used.front()] / 1e-9));
-    }
-    // Weights (I/σ_I)², taken relative to the largest: fit_line scales the covariance by the
-    // residual variance, so only ratios of weights matter, and ratios cannot overflow where
-    // (I/σ_I)² can (a wild fitted line gives exp(...) near 1e308).
-    auto relative_squares = [](std::vector<double> v) {
-        const double ref = v.empty() ? 1.0 : *std::max_element(v.begin(), v.end());
-        for (double& x : v) x = (x / ref) * (x / ref);
-        return v;
-    };
-    std::vector<double> w(used.size());
-    for (std::size_t k = 0; k < used.size(); ++k) w[k] = a[used[k]];
-    w = relative_squares(std::move(w));
-    line_fit line = fit_ln(z, a, used, w);
-    for (int pass = 1; pass < detail::linear_passes; ++pass) {
-        std::vector<std::size_t> next;
-        std::vector<double> next_w;
-        for (std::size_t i = 0; i < n; ++i) {
-            const double fitted = std::exp(line.intercept + line.slope * z[i]);
-            // An overflowing extrapolation of the line says nothing about the point's weight.
-            if (!std::isfinite(fitted)) continue;
-            if (eligible(i) && fitted >= floor && a[i] >= detail::observed_floor_fraction * floor) {
-                next.push_back(i);
-                next_w.push_back(fitted);
-            }
-        }
-        next_w = relative_squares(std::move(next_w));
-        if (next.size() < 3) break;
-        const bool same = next == used;
-        // A wild line (an outlier far out in z) can give weights that leave fewer than two
-        // distinct z with any weight: the reweighted problem is then singular and its standard
-        // errors NaN. Keep the last well-posed fit instead.
-        const line_fit candidate = fit_ln(z, a, next, next_w);
-        if (!std::isfinite(candidate.slope) || !std::isfinite(candidate.slope_stderr) ||
-            !std::isfinite(candidate.intercept) || !std::isfinite(candidate.intercept_stderr)) {
-            break;
-        }
-        used = std::move(next);
-        w = std::move(next_w);
-        line = candidate;
-        if (same) break;
-    }
-    if (!std::isfinite(line.slope) || !std::isfinite(line.slope_stderr)) {
-        throw_input(where, fmt::format("the straight-line fit of ln|I| against z over {} points is singular; expected "
-                                       "points that spread over z with comparable currents",
-                                       used.size()));
-    }
-    r.z_ref_m = z[used.front()];
-    r.line = line;
-    for (std::size_t i : used) r.used_rows.push_back(order[i]);
-
-    if (opt.model == fit_model::linear) {
-        r.iterations = 1;
-        r.points_used = used.size();
-        r.prefactor_A = std::exp(line.intercept + line.slope * r.z_ref_m);
-        // ln I0(z_ref) = intercept + slope z_ref; its variance from the line covariance, then
-        // σ_I0 = I0 σ_lnI0.
-        const double var_ln = line.intercept_stderr * line.intercept_stderr +
-                              r.z_ref_m * r.z_ref_m * line.slope_stderr * line.slope_stderr +
-                              2.0 * r.z_ref_m * line.covariance;
-        r.prefactor_stderr_A = r.prefactor_A * std::sqrt(std::max(var_ln, 0.0));
-        r.r_squared = line.r_squared;
-        r.residual_rms_ln = line.residual_rms;
-        double ss = 0.0;
-        for (std::size_t i : used) {
-            const double d = a[i] - std::exp(line.intercept + line.slope * z[i]);
-            ss += d * d;
-        }
-        r.residual_rms_A = std::sqrt(ss / static_cast<double>(used.size()));
-        const double dof = static_cast<double>(used.size()) - 2.0;
-        r.reduced_chi_square = line.residual_std * line.residual_std;
-        detail::fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, dof, detail::t_quantile(dof, r.confidence_level));
-        if (r.points_below_floor > 0) {
-            r.warnings.push_back(fmt::format("{} of {} points lie below the noise floor of {} and were not used",
-                                             r.points_below_floor, n, detail::format_current(floor)));
-        }
-    } else {
-        std::vector<double> zz, yy;
-        double sign_sum = 0.0;
-        r.used_rows.clear();  // the offset model uses every point outside contact and saturation
-        for (std::size_t i = 0; i < n; ++i) {
-            if (i >= first && (sat <= 0.0 || a[i] < sat)) {
-                r.used_rows.push_back(order[i]);
-                zz.push_back(z[i]);
-                yy.push_back(current[i]);
-                sign_sum += current[i];
-            }
-        }
-        if (zz.size() < 4) {
-            throw_input(where, fmt::format("only {} points lie below saturation and outside contact; the offset "
-                                           "model needs at least 4",
-                                           zz.size()));
-        }
-        // Fit the current with the sign of the signal so that a is positive.
-        const double s = sign_sum < 0.0 ? -1.0 : 1.0;
-        for (double& v : yy) v *= s;
-        const double z_ref = zz.front();
-        const double a0 = std::exp(line.intercept + line.slope * z_ref);
-        const double c0 = est.floor_reached ? s * est.tail_offset_A : 0.0;
-        const detail::offset_fit of = detail::fit_offset_model(zz, yy, z_ref, a0, -line.slope, c0, opt.max_evaluations);
-        r.z_ref_m = z_ref;
-        r.iterations = of.evaluations;
-        r.status = of.converged ? fit_status::converged : fit_status::not_converged;
-        r.message = of.message;
-        if (!of.converged) r.warnings.push_back("the offset model did not converge: " + of.message);
-        r.points_used = zz.size();
-        r.prefactor_A = of.amplitude_A;
-        r.prefactor_stderr_A = of.amplitude_stderr_A;
-        r.offset_A = s * of.offset_A;
-        r.offset_stderr_A = of.offset_stderr_A;
-        double mean = 0.0;
-        for (double v : yy) mean += v;
-        mean /= static_cast<double>(yy.size());
-        double sst = 0.0, ss_ln = 0.0;
-        std::size_t n_ln = 0;
-        for (std::size_t k = 0; k < yy.size(); ++k) {
-            sst += (yy[k] - mean) * (yy[k] - mean);
-            const double m = of.amplitude_A * std::exp(-of.rate_per_m * (zz[k] - z_ref)) + of.offset_A;
-            if (yy[k] > 0.0 && m > 0.0) {
-                ss_ln += std::pow(std::log(yy[k]) - std::log(m), 2);
-                ++n_ln;
-            }
-        }
-        r.r_squared = sst > 0.0 ? 1.0 - of.ssr_A2 / sst : 1.0;
-        r.residual_rms_A = std::sqrt(of.ssr_A2 / static_cast<double>(yy.size()));
-        r.residual_rms_ln = n_ln > 0 ? std::sqrt(ss_ln / static_cast<double>(n_ln)) : 0.0;
-        const double dof = static_cast<double>(zz.size()) - 3.0;
-        detail::fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, detail::t_quantile(dof, r.confidence_level));
-    }
-
-    // Warnings a careful reader wants next to the numbers.
+// Warnings a careful reader wants next to the numbers: saturation, contact, a short current
+// range, a decay constant of the wrong sign.
+void add_warnings(fit_result& r, const fit_options& opt) {
     if (r.saturation_detected) {
         r.warnings.push_back(fmt::format("flat top detected: {} points at or above {} treated as saturated and not used",
-                                         r.points_saturated, detail::format_current(sat)));
+                                         r.points_saturated, detail::format_current(r.saturation_A)));
     } else if (r.points_saturated > 0) {
         r.warnings.push_back(fmt::format("{} points at or above the saturation of {} were not used", r.points_saturated,
-                                         detail::format_current(sat)));
+                                         detail::format_current(r.saturation_A)));
     }
     if (r.contact.kind != contact_kind::none) {
         r.warnings.push_back(fmt::format(
@@ -408,24 +271,60 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
             r.contact.points_in_contact, r.contact.gap_offset_m < 0 ? "-" : "+", std::abs(r.contact.gap_offset_m) / 1e-9,
             opt.contact_distance_m / 1e-9));
     }
-    double lo = std::numeric_limits<double>::infinity(), hi = 0.0;
-    for (std::size_t i : used) {
-        lo = std::min(lo, a[i]);
-        hi = std::max(hi, a[i]);
-    }
-    const double decades = std::log10(hi / lo);
-    r.current_decades_used = decades;
-    if (decades < 1.0) {
+    if (r.current_decades_used < 1.0) {
         r.warnings.push_back(
             fmt::format("the used points span only {:.2g} decades of current; the decay constant is poorly constrained",
-                        decades));
+                        r.current_decades_used));
     }
     if (r.decay_constant_per_m <= 0.0) {
         r.warnings.push_back("|I| does not decrease with z (decay constant <= 0): check that z increases as the tip "
                              "retracts");
     }
+}
 
-    r.profile = local_profile(z, a, used, w, opt, r.contact, r.warnings);
+}  // namespace
+
+fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options& opt, const location& where) {
+    opt.validate();
+    const std::size_t n = sweep.z_m.size();
+    if (n < 3) throw_input(where, fmt::format("the sweep has only {} points; a fit needs at least 3", n));
+
+    fit_result r;
+    r.model = opt.model;
+    r.direction = sweep.direction;
+    r.points_total = n;
+    r.confidence_level = opt.confidence_level;
+    r.calibration_uncertainty = opt.calibration_uncertainty;
+
+    // The selection of fit_sweep_fast, on the sweep sorted by z (closest first).
+    fit_workspace ws;
+    ws.sweep.assign(sweep.z_m, sweep.current_A);
+    const detail::point_selection selection = detail::select_points(ws, bias_V, opt);
+    selection.record(r);
+    if (selection.noiseless) {
+        r.warnings.push_back("the far tail shows no current noise; the weights assume a noise of 1e-9 of the "
+                             "maximum current");
+    }
+    // The linear model (also the starting point of the offset model).
+    const detail::linear_points linear = detail::fit_linear_points(ws, selection, svd_line);
+    throw_unless_fitted(linear.status, ws, selection, where);
+    r.z_ref_m = ws.sweep.z[ws.used.front()];
+    r.line = linear.line;
+    for (std::size_t i : ws.used) r.used_rows.push_back(ws.sweep.order[i]);
+
+    if (opt.model == fit_model::linear) {
+        detail::record_linear_fit(r, ws, linear.line);
+        if (r.points_below_floor > 0) {
+            r.warnings.push_back(fmt::format("{} of {} points lie below the noise floor of {} and were not used",
+                                             r.points_below_floor, n, detail::format_current(r.noise_floor_A)));
+        }
+    } else {
+        // The offset model uses every point outside contact and saturation.
+        record_offset_fit(r, ws, selection, linear.line, opt, where);
+        r.current_decades_used = detail::current_decades(ws);
+    }
+    add_warnings(r, opt);
+    r.profile = local_profile(ws, opt, r.contact, r.warnings);
     return r;
 }
 

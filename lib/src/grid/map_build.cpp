@@ -6,7 +6,8 @@
 #include <limits>
 #include <memory>
 
-#include "fit/detail/fit_internal.hpp"
+#include "fit/detail/fit_fast.hpp"
+#include "grid/detail/pixel_quality.hpp"
 #include "tipgap/grid/map.hpp"
 
 namespace tipgap {

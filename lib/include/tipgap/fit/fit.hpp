@@ -184,27 +184,6 @@ struct fit_result {
 fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options& options,
                      const location& where = {});
 
-// Reusable buffers of fit_sweep_fast, so that fitting many pixels allocates nothing per pixel.
-// One workspace per thread; its contents between calls are of no interest to the caller.
-struct fit_workspace {
-    std::vector<double> z, current, a, ln_a, far_first, scratch, weights, next_weights;
-    std::vector<std::size_t> order, used, next;
-    std::vector<double> t_cache;  // t quantiles by degrees of freedom (NaN: not computed yet)
-    double t_cache_level = 0.0;   // confidence level of t_cache
-};
-
-// The linear model of fit_sweep for one sweep, without the sliding-window profile, the warnings,
-// used_rows and the option checks: the same point selection (noise floor, saturation, contact), weights,
-// reweighting passes and statistics, with the weighted line solved in closed form from centred
-// sums (Bevington & Robinson, Data Reduction and Error Analysis, 3rd ed. (2003), eqs. 6.12, 6.21-
-// 6.22) instead of by SVD; the results agree with fit_sweep to rounding. For maps of many pixels.
-// z_m: m, any order, n >= 0; current_A: A, same length; bias_V: V or NaN; options: validated by
-// the caller, options.model must be linear; ws: the calling thread's workspace.
-// Returns false (and fills points_total, points_used and the selection fields of `out`) when
-// fewer than 3 points lie above the noise floor and below saturation, where fit_sweep throws.
-bool fit_sweep_fast(std::span<const double> z_m, std::span<const double> current_A, double bias_V,
-                    const fit_options& options, fit_workspace& ws, fit_result& out);
-
 // Fits every sweep of a curve (approach and retract separately), in file order.
 std::vector<fit_result> fit_curve(const measured_curve& curve, const fit_options& options);
 

@@ -1,7 +1,8 @@
 #pragma once
-// Barrier-height maps of spectroscopy grids: one fit per pixel (fit.hpp's linear model through
-// fit_sweep_fast, or fit_sweep for the offset model), a quality code per pixel, matrices in
-// ascending x and y, and summary statistics of the apparent barrier height.
+// Barrier-height maps of spectroscopy grids: one fit per pixel (fit.hpp's linear model through a
+// lean per-pixel path with fit_sweep's point selection, or fit_sweep for the offset model), a
+// quality code per pixel, matrices in ascending x and y, and summary statistics of the apparent
+// barrier height.
 #include <array>
 #include <cstddef>
 #include <cstdint>
@@ -89,9 +90,5 @@ struct barrier_map {
 // count: each pixel's fit depends only on its samples, and results are placed by position.
 // Throws tipgap::error (input) for a bad grid (see read_grid) or bad options.
 barrier_map make_barrier_map(const std::string& path, const map_options& options);
-
-// The quality code and values of one pixel from its fit (exposed for tests). fitted: false when
-// fit_sweep_fast found too few points.
-pixel_quality classify_pixel(const fit_result& r, bool fitted, const map_options& options);
 
 }  // namespace tipgap
