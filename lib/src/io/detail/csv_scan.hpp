@@ -1,5 +1,5 @@
 #pragma once
-// Low-level CSV scanning shared by the curve reader and (later) the grid reader: walk a buffer
+// Low-level CSV scanning shared by the curve reader and the grid reader: walk a buffer
 // line by line, split a row into cells and parse numbers with std::from_chars, all without
 // allocating. Only the plain dialect tipgap reads is supported: comma separated, no quoting,
 // optional spaces/tabs around cells, LF or CRLF line ends.
@@ -21,24 +21,31 @@ inline std::string_view trim_cell(std::string_view s) {
 // Iterates over the lines of a buffer; line numbers are 1-based.
 class line_cursor {
 public:
-    explicit line_cursor(std::string_view text) : text_(text) {}
+    // lines_before: the number of the line before the buffer's first (0 at the start of a file).
+    explicit line_cursor(std::string_view text, int lines_before = 0) : text_(text), line_number_(lines_before) {}
     // Sets `line` to the next line (without its '\n'; a '\r' is kept and trimmed by the cell
     // functions) and returns true, or returns false at the end of the buffer.
     bool next(std::string_view& line) {
         if (pos_ >= text_.size()) return false;
         std::size_t end = text_.find('\n', pos_);
-        if (end == std::string_view::npos) end = text_.size();
+        newline_ = end != std::string_view::npos;
+        if (!newline_) end = text_.size();
         line = text_.substr(pos_, end - pos_);
         pos_ = end + 1;
         ++line_number_;
         return true;
     }
     int line_number() const { return line_number_; }
+    // The last line read ended with a '\n' (not at the end of the buffer without one).
+    bool ended_by_newline() const { return newline_; }
+    // Byte offset of the next line in the buffer (its size after the last line).
+    std::size_t offset() const { return pos_ < text_.size() ? pos_ : text_.size(); }
 
 private:
     std::string_view text_;
     std::size_t pos_ = 0;
     int line_number_ = 0;
+    bool newline_ = true;
 };
 
 // True when the line holds nothing but whitespace.
