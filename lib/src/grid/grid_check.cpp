@@ -30,16 +30,9 @@ std::string describe(const pixel_run& r, const std::vector<std::string>& files) 
     return r.line > 0 ? fmt::format("line {}", r.line) : files.at(r.file_index);
 }
 
-}  // namespace
-
-void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::string>& files, bool equal_counts,
-                grid_layout& layout) {
-    if (runs.empty()) {
-        throw_input(location{files.empty() ? layout.path : files.front(), 0, 0, ""},
-                    "no data rows after the header; expected one row per sample such as '0,0,0.01,812.5' under "
-                    "'x [nm],y [nm],z [nm],current [pA]'");
-    }
-    // Order by position, then by file order, so that a repeat follows its first occurrence.
+// Indices of the runs ordered by position (y, then x), then by file order, so that a repeat
+// follows its first occurrence.
+std::vector<std::size_t> by_position(const std::vector<pixel_run>& runs) {
     std::vector<std::size_t> order(runs.size());
     std::iota(order.begin(), order.end(), std::size_t{0});
     std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
@@ -48,6 +41,12 @@ void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::strin
         if (p.x_m != q.x_m) return p.x_m < q.x_m;
         return a < b;
     });
+    return order;
+}
+
+// The earliest run (in file order) that repeats a position, reported with the first occurrence.
+void throw_on_repeat(const std::vector<pixel_run>& runs, const std::vector<std::size_t>& order,
+                     const std::vector<std::string>& files) {
     std::size_t repeat = runs.size(), first_of_repeat = 0;
     for (std::size_t k = 1; k < order.size(); ++k) {
         const pixel_run &p = runs[order[k - 1]], &q = runs[order[k]];
@@ -59,57 +58,74 @@ void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::strin
             first_of_repeat = order[j];
         }
     }
-    if (repeat < runs.size()) {
-        const pixel_run& r = runs[repeat];
-        throw_input(where_of(r, files),
-                    fmt::format("pixel {} appears again (first at {}); each pixel's rows must be together, with "
-                                "every pixel once (rows of different pixels interleaved, or a pixel repeated?)",
-                                format_pixel(r.x_m, r.y_m), describe(runs[first_of_repeat], files)));
-    }
-    if (equal_counts) {
-        for (const pixel_run& r : runs) {
-            if (r.samples != runs.front().samples) {
-                throw_input(where_of(r, files),
-                            fmt::format("pixel {} has {} samples; the first pixel ({}) has {}; every pixel needs the "
-                                        "same number{}",
-                                        format_pixel(r.x_m, r.y_m), r.samples, describe(runs.front(), files),
-                                        runs.front().samples,
-                                        &r == &runs.back() ? " (is the file cut short?)" : ""));
-            }
-        }
-    }
-    std::vector<double> xs, ys;
-    xs.reserve(runs.size());
-    ys.reserve(runs.size());
+    if (repeat == runs.size()) return;
+    const pixel_run& r = runs[repeat];
+    throw_input(where_of(r, files),
+                fmt::format("pixel {} appears again (first at {}); each pixel's rows must be together, with "
+                            "every pixel once (rows of different pixels interleaved, or a pixel repeated?)",
+                            format_pixel(r.x_m, r.y_m), describe(runs[first_of_repeat], files)));
+}
+
+void throw_on_unequal_counts(const std::vector<pixel_run>& runs, const std::vector<std::string>& files) {
     for (const pixel_run& r : runs) {
-        xs.push_back(r.x_m);
-        ys.push_back(r.y_m);
+        if (r.samples != runs.front().samples) {
+            throw_input(where_of(r, files),
+                        fmt::format("pixel {} has {} samples; the first pixel ({}) has {}; every pixel needs the "
+                                    "same number{}",
+                                    format_pixel(r.x_m, r.y_m), r.samples, describe(runs.front(), files),
+                                    runs.front().samples, &r == &runs.back() ? " (is the file cut short?)" : ""));
+        }
     }
-    std::sort(xs.begin(), xs.end());
-    xs.erase(std::unique(xs.begin(), xs.end()), xs.end());
-    std::sort(ys.begin(), ys.end());
-    ys.erase(std::unique(ys.begin(), ys.end()), ys.end());
-    if (xs.size() * ys.size() != runs.size()) {
-        // Without repeats, fewer pixels than positions: name the first hole in (y, x) order.
-        std::size_t k = 0;
-        double hole_x = xs.front(), hole_y = ys.front();
-        bool found = false;
-        for (std::size_t iy = 0; iy < ys.size() && !found; ++iy) {
-            for (std::size_t ix = 0; ix < xs.size() && !found; ++ix) {
-                if (k < order.size() && runs[order[k]].x_m == xs[ix] && runs[order[k]].y_m == ys[iy]) {
-                    ++k;
-                } else {
-                    hole_x = xs[ix];
-                    hole_y = ys[iy];
-                    found = true;
-                }
+}
+
+// The distinct values of one coordinate of the runs, ascending.
+std::vector<double> distinct(const std::vector<pixel_run>& runs, double pixel_run::*coordinate) {
+    std::vector<double> v;
+    v.reserve(runs.size());
+    for (const pixel_run& r : runs) v.push_back(r.*coordinate);
+    std::sort(v.begin(), v.end());
+    v.erase(std::unique(v.begin(), v.end()), v.end());
+    return v;
+}
+
+// Without repeats, fewer pixels than positions: names the first hole in (y, x) order.
+[[noreturn]] void throw_hole(const std::vector<pixel_run>& runs, const std::vector<std::size_t>& order,
+                             const std::vector<double>& xs, const std::vector<double>& ys,
+                             const std::vector<std::string>& files) {
+    std::size_t k = 0;
+    double hole_x = xs.front(), hole_y = ys.front();
+    bool found = false;
+    for (std::size_t iy = 0; iy < ys.size() && !found; ++iy) {
+        for (std::size_t ix = 0; ix < xs.size() && !found; ++ix) {
+            if (k < order.size() && runs[order[k]].x_m == xs[ix] && runs[order[k]].y_m == ys[iy]) {
+                ++k;
+            } else {
+                hole_x = xs[ix];
+                hole_y = ys[iy];
+                found = true;
             }
         }
-        throw_input(location{files.front(), 0, 0, ""},
-                    fmt::format("the pixels do not fill a grid: {} pixels for {} x values times {} y values; pixel {} "
-                                "is missing (is the file cut short?)",
-                                runs.size(), xs.size(), ys.size(), format_pixel(hole_x, hole_y)));
     }
+    throw_input(location{files.front(), 0, 0, ""},
+                fmt::format("the pixels do not fill a grid: {} pixels for {} x values times {} y values; pixel {} "
+                            "is missing (is the file cut short?)",
+                            runs.size(), xs.size(), ys.size(), format_pixel(hole_x, hole_y)));
+}
+
+}  // namespace
+
+void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::string>& files, bool equal_counts,
+                grid_layout& layout) {
+    if (runs.empty()) {
+        throw_input(location{files.empty() ? layout.path : files.front(), 0, 0, ""},
+                    "no data rows after the header; expected one row per sample such as '0,0,0.01,812.5' under "
+                    "'x [nm],y [nm],z [nm],current [pA]'");
+    }
+    const std::vector<std::size_t> order = by_position(runs);
+    throw_on_repeat(runs, order, files);
+    if (equal_counts) throw_on_unequal_counts(runs, files);
+    std::vector<double> xs = distinct(runs, &pixel_run::x_m), ys = distinct(runs, &pixel_run::y_m);
+    if (xs.size() * ys.size() != runs.size()) throw_hole(runs, order, xs, ys, files);
     layout.x_m = std::move(xs);
     layout.y_m = std::move(ys);
     layout.pixels = runs.size();

@@ -104,65 +104,65 @@ map_statistics summarize(const std::vector<double>& values) {
     return s;
 }
 
-barrier_map make_barrier_map(const std::string& path, const map_options& options) {
-    options.validate();
-    const unsigned slots = resolved_threads(options.read) + 1;
-    struct slot_state {
-        fit_workspace ws;
-        fit_result r;
-        std::vector<pixel_record> records;
-    };
-    std::vector<std::unique_ptr<slot_state>> state;
-    for (unsigned s = 0; s < slots; ++s) state.push_back(std::make_unique<slot_state>());
-    const fit_options& fo = options.fit;
+namespace {
 
-    auto visit = [&](const grid_pixel_view& px, unsigned slot) {
-        slot_state& st = *state[slot];
-        // A pixel whose z turns back (approach and retract recorded) is fitted on its first sweep.
-        std::span<const double> z = px.z_m, current = px.current_A;
-        bool monotonic_up = true, monotonic_down = true;
-        for (std::size_t i = 1; i < z.size(); ++i) {
-            monotonic_up = monotonic_up && z[i] >= z[i - 1];
-            monotonic_down = monotonic_down && z[i] <= z[i - 1];
-        }
-        curve_sweep first;
-        if (!monotonic_up && !monotonic_down && z.size() >= 3) {
-            const std::vector<double> zz(z.begin(), z.end()), ii(current.begin(), current.end());
-            first = split_at_turns(zz, ii).front();
-            z = first.z_m;
-            current = first.current_A;
-        }
-        bool fitted = false;
-        if (fo.model == fit_model::linear) {
-            fitted = fit_sweep_fast(z, current, px.bias_V, fo, st.ws, st.r);
-        } else {
-            // The offset model (Levenberg-Marquardt) has no lean path; fit_sweep throws for too few points.
-            curve_sweep s;
-            s.z_m.assign(z.begin(), z.end());
-            s.current_A.assign(current.begin(), current.end());
-            try {
-                st.r = fit_sweep(s, px.bias_V, fo, px.where);
-                fitted = true;
-            } catch (const error&) {
-                st.r = fit_result{};
-                st.r.points_total = s.z_m.size();
-            }
-        }
-        const pixel_quality q = classify_pixel(st.r, fitted, options);
-        const bool has_value = q == pixel_quality::ok || q == pixel_quality::saturated || q == pixel_quality::contact;
-        const double nan = std::numeric_limits<double>::quiet_NaN();
-        st.records.push_back(pixel_record{px.x_m, px.y_m, has_value ? st.r.decay_constant_per_m : nan,
-                                          has_value ? st.r.decay_constant_stderr_per_m : nan,
-                                          has_value ? st.r.apparent_barrier_J : nan,
-                                          has_value ? st.r.apparent_barrier_stderr_J : nan, fitted ? st.r.r_squared : nan,
-                                          static_cast<std::uint32_t>(fitted ? st.r.points_used : 0), q});
-    };
+// Per-thread state of the map: the fit's workspace and result, and the pixels fitted so far.
+struct slot_state {
+    fit_workspace ws;
+    fit_result r;
+    std::vector<pixel_record> records;
+};
 
-    const auto t0 = std::chrono::steady_clock::now();
-    barrier_map out;
-    out.grid = read_grid(path, options.read, visit);
-    out.read_and_fit_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+// The samples to fit: the pixel's own, or when its z turns back (approach and retract recorded)
+// its first sweep, kept in `first`.
+void first_sweep(const grid_pixel_view& px, curve_sweep& first, std::span<const double>& z,
+                 std::span<const double>& current) {
+    z = px.z_m;
+    current = px.current_A;
+    bool monotonic_up = true, monotonic_down = true;
+    for (std::size_t i = 1; i < z.size(); ++i) {
+        monotonic_up = monotonic_up && z[i] >= z[i - 1];
+        monotonic_down = monotonic_down && z[i] <= z[i - 1];
+    }
+    if (!monotonic_up && !monotonic_down && z.size() >= 3) {
+        const std::vector<double> zz(z.begin(), z.end()), ii(current.begin(), current.end());
+        first = split_at_turns(zz, ii).front();
+        z = first.z_m;
+        current = first.current_A;
+    }
+}
 
+// Fits one pixel into st.r; false when there were too few points.
+bool fit_pixel(const grid_pixel_view& px, const fit_options& fo, slot_state& st) {
+    curve_sweep first;
+    std::span<const double> z, current;
+    first_sweep(px, first, z, current);
+    if (fo.model == fit_model::linear) return fit_sweep_fast(z, current, px.bias_V, fo, st.ws, st.r);
+    // The offset model (Levenberg-Marquardt) has no lean path; fit_sweep throws for too few points.
+    curve_sweep s;
+    s.z_m.assign(z.begin(), z.end());
+    s.current_A.assign(current.begin(), current.end());
+    try {
+        st.r = fit_sweep(s, px.bias_V, fo, px.where);
+        return true;
+    } catch (const error&) {
+        st.r = fit_result{};
+        st.r.points_total = s.z_m.size();
+        return false;
+    }
+}
+
+pixel_record record_of(const grid_pixel_view& px, const fit_result& r, bool fitted, pixel_quality q) {
+    const bool has_value = q == pixel_quality::ok || q == pixel_quality::saturated || q == pixel_quality::contact;
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    return pixel_record{px.x_m, px.y_m, has_value ? r.decay_constant_per_m : nan,
+                        has_value ? r.decay_constant_stderr_per_m : nan, has_value ? r.apparent_barrier_J : nan,
+                        has_value ? r.apparent_barrier_stderr_J : nan, fitted ? r.r_squared : nan,
+                        static_cast<std::uint32_t>(fitted ? r.points_used : 0), q};
+}
+
+// The matrices of `out` (grid already read) from every slot's records, placed by position.
+void place_records(barrier_map& out, const std::vector<std::unique_ptr<slot_state>>& state) {
     out.nx = out.grid.x_m.size();
     out.ny = out.grid.y_m.size();
     const std::size_t n = out.nx * out.ny;
@@ -191,6 +191,26 @@ barrier_map make_barrier_map(const std::string& path, const map_options& options
             out.quality[k] = p.q;
         }
     }
+}
+
+}  // namespace
+
+barrier_map make_barrier_map(const std::string& path, const map_options& options) {
+    options.validate();
+    const unsigned slots = resolved_threads(options.read) + 1;
+    std::vector<std::unique_ptr<slot_state>> state;
+    for (unsigned s = 0; s < slots; ++s) state.push_back(std::make_unique<slot_state>());
+    auto visit = [&](const grid_pixel_view& px, unsigned slot) {
+        slot_state& st = *state[slot];
+        const bool fitted = fit_pixel(px, options.fit, st);
+        st.records.push_back(record_of(px, st.r, fitted, classify_pixel(st.r, fitted, options)));
+    };
+
+    const auto t0 = std::chrono::steady_clock::now();
+    barrier_map out;
+    out.grid = read_grid(path, options.read, visit);
+    out.read_and_fit_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    place_records(out, state);
     for (pixel_quality q : out.quality) ++out.quality_counts[static_cast<std::size_t>(q)];
     out.pitch_x_m = median_spacing(out.grid.x_m, out.uniform_pitch);
     out.pitch_y_m = median_spacing(out.grid.y_m, out.uniform_pitch);
