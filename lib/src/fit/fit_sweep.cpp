@@ -202,7 +202,7 @@ void record_offset_fit(fit_result& r, const fit_workspace& ws, const detail::poi
     double sign_sum = 0.0;
     r.used_rows.clear();
     for (std::size_t i = 0; i < sw.z.size(); ++i) {
-        if (i >= sel.contact.points_in_contact && (sel.saturation_A <= 0.0 || sw.abs_current[i] < sel.saturation_A)) {
+        if (sel.usable_by_offset(i, sw.abs_current[i])) {
             r.used_rows.push_back(sw.order[i]);
             zz.push_back(sw.z[i]);
             yy.push_back(sw.current[i]);

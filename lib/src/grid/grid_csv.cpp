@@ -156,8 +156,8 @@ struct pixel_sink {
     double bias_V;
     const grid_visitor& visit;
 
-    void operator()(unsigned slot, double x_m, double y_m, std::int64_t line, std::span<const double> z_m,
-                    std::span<const double> current_A, std::vector<pixel_run>& runs) const {
+    void deliver(unsigned slot, double x_m, double y_m, std::int64_t line, std::span<const double> z_m,
+                 std::span<const double> current_A, std::vector<pixel_run>& runs) const {
         grid_pixel_view v;
         v.x_m = x_m;
         v.y_m = y_m;
@@ -307,7 +307,7 @@ private:
             e.current_A.assign(buf.current.begin(), buf.current.end());
             run.first_run = false;
         } else {
-            sink_(slot, run.x, run.y, run.line, buf.z, buf.current, out.runs);
+            sink_.deliver(slot, run.x, run.y, run.line, buf.z, buf.current, out.runs);
         }
         out.samples += buf.z.size();
         buf.z.clear();
@@ -482,7 +482,7 @@ public:
     // Visits the pixel carried over, if any.
     void finish() {
         if (!carry_.valid) return;
-        sink_(slot_, carry_.x_m, carry_.y_m, carry_.line, carry_.z_m, carry_.current_A, runs_);
+        sink_.deliver(slot_, carry_.x_m, carry_.y_m, carry_.line, carry_.z_m, carry_.current_A, runs_);
         carry_.valid = false;
     }
     const std::vector<pixel_run>& runs() const { return runs_; }

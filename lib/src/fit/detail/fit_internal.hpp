@@ -20,7 +20,8 @@ double mad(const std::vector<double>& v);
 // current_far_first: the sweep's currents ordered by decreasing z, n >= 3; scratch: reused buffer.
 noise_estimate noise_from_far_first(std::span<const double> current_far_first, std::vector<double>& scratch);
 
-// Constants of the linear-model point selection shared by fit_sweep and fit_sweep_fast.
+// Constants of the linear-model point selection (point_selection.hpp), which fit_sweep and
+// fit_sweep_fast share.
 // Without measurable noise (exact synthetic data) the weights still need a σ_I; a tiny fraction
 // of the maximum keeps their shape |I|² without affecting anything else.
 inline constexpr double noiseless_sigma_fraction = 1e-9;

@@ -125,7 +125,7 @@ void reselect(fit_workspace& ws, const point_selection& sel, const line_fit& lin
     ws.next_weights.clear();
     for (std::size_t i = 0; i < s.z.size(); ++i) {
         // The cheap tests first: the exponential is only needed for points that pass them.
-        if (!sel.usable(i, s.abs_current[i]) || !(s.abs_current[i] >= observed_floor_fraction * floor)) continue;
+        if (!sel.usable_by_linear(i, s.abs_current[i]) || !(s.abs_current[i] >= observed_floor_fraction * floor)) continue;
         const double fitted = std::exp(line.intercept + line.slope * s.z[i]);
         // An overflowing extrapolation of the line says nothing about the point's weight.
         if (std::isfinite(fitted) && fitted >= floor) {
@@ -148,7 +148,7 @@ linear_points fit_linear_points(fit_workspace& ws, const point_selection& sel, l
     linear_points out;
     ws.used.clear();
     for (std::size_t i = 0; i < n; ++i) {
-        if (sel.usable(i, s.abs_current[i]) && s.abs_current[i] >= sel.noise_floor_A) ws.used.push_back(i);
+        if (sel.usable_by_linear(i, s.abs_current[i]) && s.abs_current[i] >= sel.noise_floor_A) ws.used.push_back(i);
     }
     if (ws.used.size() < 3) {
         out.status = linear_status::too_few_points;

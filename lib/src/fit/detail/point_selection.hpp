@@ -63,11 +63,15 @@ struct point_selection {
     std::size_t points_saturated = 0;    // outside contact, |I| at or above the saturation
     std::size_t points_below_floor = 0;  // outside contact, |I| below the floor
 
-    // Point i (|I| = abs_current_A) lies outside contact, below saturation and is non-zero: either
-    // model may use it.
-    bool usable(std::size_t i, double abs_current_A) const {
-        return i >= contact.points_in_contact && (saturation_A <= 0.0 || abs_current_A < saturation_A) &&
-               abs_current_A > 0.0;
+    // Point i (|I| = abs_current_A) lies outside contact and below saturation: the offset model
+    // uses it.
+    bool usable_by_offset(std::size_t i, double abs_current_A) const {
+        return i >= contact.points_in_contact && (saturation_A <= 0.0 || abs_current_A < saturation_A);
+    }
+    // ... and its current is non-zero (ln|I| exists): the linear model may use it, when it also lies
+    // above the floor (fit_linear_points).
+    bool usable_by_linear(std::size_t i, double abs_current_A) const {
+        return usable_by_offset(i, abs_current_A) && abs_current_A > 0.0;
     }
     // Copies the selection into the fields of the same names of `r`.
     void record(fit_result& r) const;
