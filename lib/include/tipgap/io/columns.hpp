@@ -165,8 +165,11 @@ std::string format_table(const std::vector<column<T>>& columns, const Rows& rows
 template <class T, class Rows>
 std::string format_csv(const std::vector<column<T>>& columns, const Rows& rows) {
     std::string out;
-    for (const column<T>& c : columns)
-        if (c.shown & in_csv) out += (out.empty() ? "" : ",") + csv_quote(c.key);
+    for (const column<T>& c : columns) {
+        if (!(c.shown & in_csv)) continue;
+        if (!out.empty()) out += ',';
+        out += csv_quote(c.key);
+    }
     out += '\n';
     for (const T& row : rows) {
         bool first = true;
