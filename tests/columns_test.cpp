@@ -40,8 +40,7 @@ std::vector<column<sample_row>> sample_columns() {
 }
 
 // 0.6e-9 m times 1e9 is 0.59999999999999998 in binary floating point (Python: "%.17g" % (0.6e-9 * 1e9)):
-// 17 digits in CSV, the
-// shortest text that reads back (0.6) in JSON, 4 significant digits in the table.
+// 17 digits in CSV, the shortest text that reads back (0.6) in JSON, 4 significant digits in the table.
 const std::vector<sample_row> rows = {
     {"a,b", 0.6e-9, 1.234567e-9, 2e-11, 12, true, {}},
     {"c", std::numeric_limits<double>::quiet_NaN(), -2.5e-12, std::numeric_limits<double>::quiet_NaN(), 3, false,
