@@ -7,7 +7,7 @@
 //   plan     forward predictions, setpoint (gap) solver, uncertainty propagation, warnings, teaching table
 //   fit      apparent barrier height and decay constant from measured I(z) curves; model comparison
 //   grid     spectroscopy grids: streamed readers, checks and barrier-height maps
-//   io       reading measured curves, atomic output files and directories
+//   io       reading measured curves, atomic output files and directories, declared output columns
 //   synth    synthetic curves and grids with documented ground truth (demos and tests only)
 //   plot     the drawing engine (PLplot): x-y panels, colour maps, histograms
 //   figures  every figure a command writes, computed from library results
@@ -27,28 +27,41 @@
 #include "tipgap/model/wkb.hpp"
 
 #include "tipgap/config/config.hpp"
+#include "tipgap/config/config_summary.hpp"
 
 #include "tipgap/plan/plan.hpp"
+#include "tipgap/plan/plan_columns.hpp"
 #include "tipgap/plan/predict.hpp"
+#include "tipgap/plan/predict_columns.hpp"
 #include "tipgap/plan/reference_table.hpp"
+#include "tipgap/plan/reference_table_columns.hpp"
 #include "tipgap/plan/uncertainty.hpp"
+#include "tipgap/plan/uncertainty_columns.hpp"
 #include "tipgap/plan/warnings.hpp"
 
 #include "tipgap/fit/fit.hpp"
+#include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/fit/model_fit.hpp"
 
 #include "tipgap/grid/grid.hpp"
 #include "tipgap/grid/map.hpp"
+#include "tipgap/grid/map_files.hpp"
 
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
+#include "tipgap/io/columns.hpp"
 #include "tipgap/io/curve_io.hpp"
 
 #include "tipgap/synth/synth.hpp"
+#include "tipgap/synth/synth_columns.hpp"
 
 #include "tipgap/plot/plot.hpp"
 
+#include "tipgap/figures/demo_figures.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/figures/fit_plot.hpp"
+#include "tipgap/figures/map_figures.hpp"
 
 #include "tipgap/demo/demo.hpp"
+#include "tipgap/demo/demo_columns.hpp"

@@ -89,6 +89,8 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
             p.conductance_S = total_current(c.model, c.geometry, s, dV) / dV;
         }
         p.conductance_G0 = p.conductance_S / si::conductance_quantum;
+        const double kappa_per_nm = p.q.decay_constant_per_m * 1e-9;
+        p.nm_per_decade = kappa_per_nm > 0 ? std::log(10.0) / (2.0 * kappa_per_nm) : 0.0;
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
     });
     return out;

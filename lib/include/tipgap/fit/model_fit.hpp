@@ -59,6 +59,8 @@ struct model_fit_result {
     double model_apparent_barrier_J = 0;
     double data_apparent_barrier_J = 0;
     double gap_min_m = 0, gap_max_m = 0;  // fitted gaps of the used points
+    // How far the mean work function lies above the data's φ_ap (J): the image potential's share.
+    double work_function_above_apparent_barrier_J() const { return mean_work_function_J - data_apparent_barrier_J; }
 
     // The fitted model ln|I| at the used points (z ascending), for plots.
     std::vector<double> z_m, ln_current_fit;

@@ -1,6 +1,7 @@
 #pragma once
 // Setpoint planning: the gap at which the configured junction and tip carry a requested current at a
 // given bias, and what that gap means at the instrument (resistance, conductance, decay, warnings).
+#include <cmath>
 #include <limits>
 #include <string>
 #include <utility>
@@ -76,6 +77,8 @@ struct plan_point {
     std::vector<std::string> warnings;  // operating warnings, or the unreachable warning
     int evaluations = 0;                // total-current evaluations incl. the slope (cost)
     bool reachable() const { return solution.reachable(); }
+    // The requested current with the sign of the bias (A): the sign of a setpoint is not used.
+    double signed_setpoint_A() const { return std::copysign(std::abs(setpoint_A), bias_V); }
 };
 
 // Warning text for an unreachable setpoint (status current_too_high or current_too_low).

@@ -16,6 +16,9 @@ struct prediction {
     double current_A = 0;               // total current for the configured geometry (A)
     double conductance_S = 0;           // I/V (S); dI/dV at V = 0
     double conductance_G0 = 0;          // conductance_S / G0
+    // ln 10 / (2 kappa) in nm: the gap change for a decade of current. 0 when kappa <= 0 (what
+    // `predict` has always printed there; issues 10 and 15 revisit it, NaN would say "no value").
+    double nm_per_decade = 0;
     std::vector<std::string> warnings;  // operating warnings (near contact, field emission, ...)
 };
 

@@ -1,17 +1,15 @@
-#include "tipgap/plan/sweep.hpp"
+#include "ranges.hpp"
 
 #include <cmath>
 #include <fmt/format.h>
 
 #include "tipgap/core/error.hpp"
 
-namespace tipgap {
+namespace tipgap::cli {
 
-bool is_range(std::string_view text) { return text.find("..") != std::string_view::npos; }
-
-std::vector<double> parse_sweep(std::string_view text, dimension d, int points, spacing sp, const std::string& option) {
+std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag) {
     location w;
-    w.key = option;
+    w.key = flag;
     std::vector<double> out;
     if (std::size_t dots = text.find(".."); dots != std::string_view::npos) {
         double a = parse_quantity(text.substr(0, dots), d, w);
@@ -39,4 +37,26 @@ std::vector<double> parse_sweep(std::string_view text, dimension d, int points, 
     return out;
 }
 
-}  // namespace tipgap
+std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,
+                                                 bool second_outer) {
+    std::vector<std::pair<double, double>> out;
+    if (second_outer) {
+        for (double b : second)
+            for (double a : first) out.emplace_back(a, b);
+    } else {
+        for (double a : first)
+            for (double b : second) out.emplace_back(a, b);
+    }
+    return out;
+}
+
+void refuse_huge_grid(std::size_t n_first, std::size_t n_second, const char* flag) {
+    // Two ranges of up to 1e6 points each would ask for 1e12 points.
+    constexpr std::size_t max_points = 10'000'000;
+    if (n_first * n_second > max_points) {
+        throw_usage(flag, fmt::format("the grid has {} x {} = {} points; expected at most {} in one run", n_first,
+                                      n_second, n_first * n_second, max_points));
+    }
+}
+
+}  // namespace tipgap::cli
