@@ -79,10 +79,6 @@ std::string one_line(std::string text) {
     return text;
 }
 
-}  // namespace
-
-namespace {
-
 // "tipgap predict" for a failure inside `predict`, else "tipgap".
 std::string command_name(const CLI::App& app) {
     for (const CLI::App* sub : app.get_subcommands()) return "tipgap " + sub->get_name();
@@ -110,9 +106,6 @@ std::string subcommand_list(const CLI::App& app) {
     return out;
 }
 
-}  // namespace
-
-namespace {
 bool starts_with(const std::string& s, std::string_view p) { return s.compare(0, p.size(), p) == 0; }
 bool ends_with(const std::string& s, std::string_view p) {
     return s.size() >= p.size() && s.compare(s.size() - p.size(), p.size(), p) == 0;
@@ -125,7 +118,6 @@ bool split_name(const std::string& s, std::string& name, std::string& rest) {
     rest = s.substr(colon + 2);
     return true;
 }
-}  // namespace
 
 // The one-line text of a command-line parse error, rewritten from CLI11's wording into the format
 // above and naming the help command of the subcommand being parsed.
@@ -203,7 +195,6 @@ std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
     return fmt::format("{} ({})", what, help);
 }
 
-
 int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
     std::fprintf(stderr, "tipgap: usage error: %s\n", one_line(usage_message(app, e)).c_str());
     return static_cast<int>(error_kind::usage);
@@ -223,6 +214,7 @@ int report_internal_error(const std::string& what) {
     return internal_error_exit;
 }
 
+}  // namespace
 }  // namespace tipgap::cli
 
 int main(int argc, char** argv) {

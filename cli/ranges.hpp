@@ -13,8 +13,8 @@ namespace tipgap::cli {
 
 enum class spacing { linear, logarithmic };
 
-// Parses "0.6nm", "0.4nm,0.6nm" or "0.4nm..1.2nm" (a range gets `points` values, 2 to 1e6, ends
-// included; a single value or a list ignores `points`). Logarithmic spacing needs FROM and TO of
+// Parses "0.6nm", "0.4nm,0.6nm" or "0.4nm..1.2nm" (a range gets `points` values, ends included; a
+// single value or a list ignores `points`). points: >= 2, which the --points flag checks (2 to 1e6). Logarithmic spacing needs FROM and TO of
 // the same sign, both non-zero. Throws tipgap::error naming `flag` on bad text.
 std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag);
 
