@@ -11,31 +11,12 @@
 
 namespace tipgap::cli {
 
-const char* to_string(output_format f) {
-    switch (f) {
-        case output_format::table: return "table";
-        case output_format::csv: return "csv";
-        case output_format::json: return "json";
-    }
-    return "table";
-}
-
-bool from_string(std::string_view s, output_format& out) {
-    for (output_format f : {output_format::table, output_format::csv, output_format::json}) {
-        if (s == to_string(f)) {
-            out = f;
-            return true;
-        }
-    }
-    return false;
-}
-
 CLI::Option* add_format_option(CLI::App* cmd, output_format& format) {
     return cmd
         ->add_option_function<std::string>(
             "--format",
             [&format](const std::string& s) {
-                if (!from_string(s, format)) throw CLI::ValidationError("--format", quote_input(s) + " is not an output format; expected table, csv or json");
+                if (!from_string(s, format)) throw CLI::ValidationError("--format", quote_input(s) + " is not an output format; expected " + accepted_names<output_format>());
             },
             "Output format: table (rounded, for reading), csv or json (full precision)")
         ->type_name("table|csv|json");

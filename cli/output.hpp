@@ -7,15 +7,23 @@
 #include <vector>
 
 #include "tipgap/config/config.hpp"
+#include "tipgap/core/enum_names.hpp"
 #include "tipgap/plan/uncertainty.hpp"
 
 namespace tipgap::cli {
-
 enum class output_format { table, csv, json };
+}  // namespace tipgap::cli
 
-// "table", "csv", "json": the one place for the names used on the command line.
-const char* to_string(output_format f);
-bool from_string(std::string_view s, output_format& out);
+namespace tipgap {
+// "table", "csv", "json": the names used on the command line (tipgap/core/enum_names.hpp).
+template <>
+struct enum_names<cli::output_format> {
+    static constexpr enum_name<cli::output_format> table[] = {
+        {cli::output_format::table, "table"}, {cli::output_format::csv, "csv"}, {cli::output_format::json, "json"}};
+};
+}  // namespace tipgap
+
+namespace tipgap::cli {
 
 // Adds --format table|csv|json to `cmd`, storing into `format`.
 CLI::Option* add_format_option(CLI::App* cmd, output_format& format);

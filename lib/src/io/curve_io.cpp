@@ -54,27 +54,6 @@ struct column_spec {
 
 }  // namespace
 
-const char* to_string(sweep_direction d) {
-    switch (d) {
-        case sweep_direction::approach: return "approach";
-        case sweep_direction::retract: return "retract";
-        case sweep_direction::unknown: return "unknown";
-    }
-    return "unknown";
-}
-
-bool from_string(std::string_view s, sweep_direction& out) {
-    if (iequals(s, "approach")) {
-        out = sweep_direction::approach;
-        return true;
-    }
-    if (iequals(s, "retract")) {
-        out = sweep_direction::retract;
-        return true;
-    }
-    return false;
-}
-
 const std::string* curve_metadata::find(std::string_view key) const {
     for (const auto& [k, v] : entries) {
         if (k == key) return &v;
@@ -248,9 +227,8 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
             } else if (spec.role == column_role::direction) {
                 if (!from_string(cell, dir)) {
                     throw_input(location{file, row_line, column, ""},
-                                fmt::format("{} in column 'direction' is not a sweep direction; expected "
-                                            "approach or retract",
-                                            quote_input(cell)));
+                                fmt::format("{} in column 'direction' is not a sweep direction; expected {}",
+                                            quote_input(cell), accepted_names<sweep_direction>()));
                 }
             }
         }

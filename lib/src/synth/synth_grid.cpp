@@ -14,20 +14,6 @@
 
 namespace tipgap {
 
-const char* to_string(grid_pattern p) { return p == grid_pattern::disc ? "disc" : "uniform"; }
-
-bool from_string(std::string_view s, grid_pattern& out) {
-    if (s == "uniform") {
-        out = grid_pattern::uniform;
-        return true;
-    }
-    if (s == "disc") {
-        out = grid_pattern::disc;
-        return true;
-    }
-    return false;
-}
-
 void synth_grid_options::validate() const {
     auto bad = [](const char* key, const std::string& what) { throw_input(location{"", 0, 0, key}, what); };
     if (nx < 1 || nx > 4096 || ny < 1 || ny > 4096) bad("grid", "each side must be 1 to 4096 pixels");
