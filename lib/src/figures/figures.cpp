@@ -5,6 +5,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -53,7 +54,7 @@ gap_curve gap_dependence(const config& c, double bias_V, double lo_m, double hi_
     gap_curve g;
     const auto s = linspace(lo_m, hi_m, n);
     g.current_A.resize(s.size());
-    parallel_for(s.size(), threads, [&](std::size_t i) { g.current_A[i] = std::abs(total_current(c.model, c.geometry, s[i], bias_V)); });
+    detail::parallel_for(s.size(), threads, [&](std::size_t i) { g.current_A[i] = std::abs(total_current(c.model, c.geometry, s[i], bias_V)); });
     g.barrier_eV.assign(s.size(), std::numeric_limits<double>::quiet_NaN());
     const double coeff = si::hbar * si::hbar / (8.0 * si::electron_mass) / J_per_eV;
     for (std::size_t i = 0; i < s.size(); ++i) {
@@ -91,7 +92,7 @@ plot::xy_panel barrier_gap_panel(const std::string& title) {
 plot::xy_panel current_bias_panel(const config& c, double gap_m, double v_max, int threads) {
     const auto v = linspace(-v_max, v_max, 81);
     std::vector<double> I(v.size());
-    parallel_for(v.size(), threads, [&](std::size_t i) { I[i] = total_current(c.model, c.geometry, gap_m, v[i]); });
+    detail::parallel_for(v.size(), threads, [&](std::size_t i) { I[i] = total_current(c.model, c.geometry, gap_m, v[i]); });
     double m = 0;
     for (double x : I) m = std::max(m, std::abs(x));
     auto [scale, unit] = current_unit(m);

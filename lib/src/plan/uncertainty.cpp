@@ -6,6 +6,8 @@
 #include <cmath>
 #include <random>
 
+#include "core/detail/parallel.hpp"
+#include "core/detail/quantile.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/plan/predict.hpp"
@@ -42,13 +44,6 @@ void uncertainty_options::validate() const {
         w.key = "samples";
         throw_input(w, "the Monte Carlo sample count must be in 0..1000000");
     }
-}
-
-double quantile_sorted(const std::vector<double>& x, double p) {
-    const double h = (static_cast<double>(x.size()) - 1.0) * std::clamp(p, 0.0, 1.0);
-    const std::size_t i = static_cast<std::size_t>(std::floor(h));
-    if (i + 1 >= x.size()) return x.back();
-    return x[i] + (h - static_cast<double>(i)) * (x[i + 1] - x[i]);
 }
 
 uncertainty_summary propagate_uncertainty(const config& c, const std::vector<std::string>& names,
@@ -115,7 +110,7 @@ uncertainty_summary propagate_uncertainty(const config& c, const std::vector<std
                 }
             }
         std::vector<std::vector<double>> results(draws.size());
-        parallel_for(draws.size(), o.threads, [&](std::size_t i) { results[i] = f(draws[i]); });
+        detail::parallel_for(draws.size(), o.threads, [&](std::size_t i) { results[i] = f(draws[i]); });
         out.samples = o.samples;
         for (const auto& r : results) {
             bool ok = r.size() >= m;
@@ -137,8 +132,8 @@ uncertainty_summary propagate_uncertainty(const config& c, const std::vector<std
             v.mc_mean = mean;
             v.mc_stddev = x.size() > 1 ? std::sqrt(ss / static_cast<double>(x.size() - 1)) : NAN;
             std::sort(x.begin(), x.end());
-            v.ci95_low = quantile_sorted(x, 0.025);
-            v.ci95_high = quantile_sorted(x, 0.975);
+            v.ci95_low = detail::quantile_sorted(x, 0.025);
+            v.ci95_high = detail::quantile_sorted(x, 0.975);
         }
     }
     return out;
