@@ -31,7 +31,7 @@ struct enum_names<method_kind> {
 };
 
 struct electrode {
-    std::string material;               // name from the materials library, or empty
+    std::string material;                              // name from the materials library, or empty
     double work_function_J = 4.5 * si::electron_volt;  // J, (0, 20 eV]
     double fermi_energy_J = 5.5 * si::electron_volt;   // J, free-electron Fermi energy, (0, 50 eV]
 };
