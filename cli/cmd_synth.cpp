@@ -54,7 +54,7 @@ synth_options synth_opts(const synth_args& a) {
     o.gap_max_m = flag_quantity(a.gap.substr(dots + 2), dimension::length, "--gap");
     if (!a.gap_at_z0.empty()) o.gap_at_z0_m = flag_quantity(a.gap_at_z0, dimension::length, "--gap-at-z0");
     if (!from_string(a.sweeps, o.sweeps))
-        throw_usage("--sweeps", fmt::format("expected retract, approach or approach_retract, got '{}'", a.sweeps));
+        throw_usage("--sweeps", fmt::format("expected {}, got '{}'", accepted_names<synth_sweeps>(), a.sweeps));
     o.points = a.points;
     if (!a.noise.empty()) o.current_noise_A = flag_quantity(a.noise, dimension::current, "--noise");
     if (!a.baseline.empty()) o.baseline_A = flag_quantity(a.baseline, dimension::current, "--baseline");
@@ -82,7 +82,7 @@ synth_grid_options grid_opts(const synth_args& a) {
         throw_usage("--grid", fmt::format("expected NXxNY, e.g. 256x256, got '{}'", a.grid));
     }
     g.pitch_m = flag_quantity(a.pitch, dimension::length, "--pitch");
-    if (!from_string(a.pattern, g.pattern)) throw_usage("--pattern", fmt::format("expected uniform or disc, got '{}'", a.pattern));
+    if (!from_string(a.pattern, g.pattern)) throw_usage("--pattern", fmt::format("expected {}, got '{}'", accepted_names<grid_pattern>(), a.pattern));
     if (!a.disc_radius.empty()) g.disc_radius_m = flag_quantity(a.disc_radius, dimension::length, "--disc-radius");
     if (!a.disc_centre.empty()) {
         const std::size_t comma = a.disc_centre.find(',');

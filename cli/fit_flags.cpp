@@ -9,7 +9,7 @@ namespace tipgap::cli {
 
 fit_options to_fit_options(const fit_flags& a, const char* command) {
     fit_options o;
-    if (!from_string(a.model, o.model)) throw_usage("--model", fmt::format("expected linear or offset, got '{}'", a.model));
+    if (!from_string(a.model, o.model)) throw_usage("--model", fmt::format("expected {}, got '{}'", accepted_names<fit_model>(), a.model));
     if (!a.noise_floor.empty()) o.noise_floor_A = flag_quantity(a.noise_floor, dimension::current, "--noise-floor");
     if (!a.saturation.empty()) o.saturation_A = flag_quantity(a.saturation, dimension::current, "--saturation");
     if (!a.current_noise.empty())

@@ -1,7 +1,7 @@
 // tipgap: a planar vacuum-gap tunnelling model, setpoint planner and I(z) fitter for STM users.
 // This umbrella header includes every public header, area by area (each area is a folder under
 // tipgap/ with the same name under lib/src/):
-//   core     units, errors, physical constants (CODATA 2018)
+//   core     units, errors, physical constants (CODATA 2018), enum names
 //   model    barrier, image potential, WKB transmission, supply, current density, closed forms, tip geometry
 //   config   the YAML junction description and the embedded materials library
 //   plan     forward predictions, setpoint (gap) solver, uncertainty propagation, warnings, teaching table
@@ -15,6 +15,7 @@
 #pragma once
 
 #include "tipgap/core/constants.hpp"
+#include "tipgap/core/enum_names.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/units.hpp"
 

@@ -156,7 +156,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
             std::string v = r.scalar(b["image_potential"], "barrier.image_potential");
             if (!from_string(v, c.model.image)) {
                 throw_input(r.at(b["image_potential"], "barrier.image_potential"),
-                            fmt::format("{} is not an image potential; expected exact, approximate or none", quote_input(v)));
+                            fmt::format("{} is not an image potential; expected {}", quote_input(v), accepted_names<image_kind>()));
             }
         }
         if (b["relative_permittivity"]) {
@@ -168,7 +168,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
     if (root["method"]) {
         std::string v = r.scalar(root["method"], "method");
         if (!from_string(v, c.model.method)) {
-            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected wkb or simmons", quote_input(v)));
+            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected {}", quote_input(v), accepted_names<method_kind>()));
         }
     }
     if (root["tolerance"]) c.model.rel_tol = r.quantity(root["tolerance"], "tolerance", dimension::dimensionless);
@@ -180,7 +180,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
             std::string v = r.scalar(g["kind"], "geometry.kind");
             if (!from_string(v, c.geometry.kind)) {
                 throw_input(r.at(g["kind"], "geometry.kind"),
-                            fmt::format("{} is not a geometry; expected planar, paraboloid or contact_anchored", quote_input(v)));
+                            fmt::format("{} is not a geometry; expected {}", quote_input(v), accepted_names<geometry_kind>()));
             }
         }
         if (g["area"]) c.geometry.area_m2 = r.quantity(g["area"], "geometry.area", dimension::area);

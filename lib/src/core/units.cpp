@@ -17,8 +17,8 @@ struct unit_entry {
 // Accepted spellings per dimension. "µ" appears both as U+00B5 and U+03BC; "u" is the ASCII form.
 constexpr unit_entry length_units[] = {{"m", 1.0}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"µm", 1e-6},
                                   {"μm", 1e-6}, {"nm", 1e-9}, {"Å", 1e-10}, {"A", 1e-10}, {"pm", 1e-12}};
-constexpr unit_entry energy_units[] = {{"eV", 1.602176634e-19}, {"meV", 1.602176634e-22},
-                                  {"keV", 1.602176634e-16}, {"J", 1.0}};
+constexpr unit_entry energy_units[] = {{"eV", si::electron_volt}, {"meV", si::millielectron_volt},
+                                  {"keV", si::electron_volt * 1e3}, {"J", 1.0}};
 constexpr unit_entry voltage_units[] = {{"V", 1.0}, {"mV", 1e-3}, {"uV", 1e-6}, {"µV", 1e-6},
                                    {"μV", 1e-6}, {"kV", 1e3}};
 constexpr unit_entry current_units[] = {{"A", 1.0}, {"mA", 1e-3}, {"uA", 1e-6}, {"µA", 1e-6}, {"μA", 1e-6},
@@ -31,7 +31,7 @@ constexpr unit_entry resistance_units[] = {{"Ohm", 1.0}, {"ohm", 1.0}, {"Ω", 1.
                                       {"kΩ", 1e3}, {"MOhm", 1e6}, {"MΩ", 1e6}, {"GOhm", 1e9}, {"GΩ", 1e9}};
 constexpr unit_entry conductance_units[] = {{"S", 1.0}, {"mS", 1e-3}, {"uS", 1e-6}, {"µS", 1e-6},
                                        {"nS", 1e-9}, {"pS", 1e-12},
-                                       {"G0", 7.748091729863649e-05}};
+                                       {"G0", si::conductance_quantum}};
 
 template <std::size_t N>
 bool lookup(const unit_entry (&table)[N], std::string_view unit, double& factor) {

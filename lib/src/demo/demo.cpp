@@ -6,6 +6,8 @@
 #include <filesystem>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
+
 namespace tipgap {
 
 demo_report run_demo(const demo_options& o) {
@@ -55,7 +57,7 @@ demo_report run_demo(const demo_options& o) {
     }
 
     // The model comparisons are independent and the slow part: one worker per sweep.
-    parallel_for(rep.curves.size(), o.model_comparison ? o.threads : 1, [&](std::size_t i) {
+    detail::parallel_for(rep.curves.size(), o.model_comparison ? o.threads : 1, [&](std::size_t i) {
         demo_curve& d = rep.curves[i];
         if (o.model_comparison) {
             const double bias = d.curve->metadata.bias_V ? *d.curve->metadata.bias_V : std::nan("");

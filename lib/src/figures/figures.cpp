@@ -5,6 +5,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -53,7 +54,7 @@ gap_curve gap_dependence(const config& c, double bias_V, double lo_m, double hi_
     gap_curve g;
     const auto s = linspace(lo_m, hi_m, n);
     g.current_A.resize(s.size());
-    parallel_for(s.size(), threads, [&](std::size_t i) { g.current_A[i] = std::abs(total_current(c.model, c.geometry, s[i], bias_V)); });
+    detail::parallel_for(s.size(), threads, [&](std::size_t i) { g.current_A[i] = std::abs(total_current(c.model, c.geometry, s[i], bias_V)); });
     g.barrier_eV.assign(s.size(), std::numeric_limits<double>::quiet_NaN());
     const double coeff = si::hbar * si::hbar / (8.0 * si::electron_mass) / J_per_eV;
     for (std::size_t i = 0; i < s.size(); ++i) {
@@ -91,7 +92,7 @@ plot::xy_panel barrier_gap_panel(const std::string& title) {
 plot::xy_panel current_bias_panel(const config& c, double gap_m, double v_max, int threads) {
     const auto v = linspace(-v_max, v_max, 81);
     std::vector<double> I(v.size());
-    parallel_for(v.size(), threads, [&](std::size_t i) { I[i] = total_current(c.model, c.geometry, gap_m, v[i]); });
+    detail::parallel_for(v.size(), threads, [&](std::size_t i) { I[i] = total_current(c.model, c.geometry, gap_m, v[i]); });
     double m = 0;
     for (double x : I) m = std::max(m, std::abs(x));
     auto [scale, unit] = current_unit(m);
@@ -113,6 +114,45 @@ plot::reference_line contact_line() {
 
 }  // namespace
 
+namespace {
+
+// "<what>: <tip> tip, <sample> sample, <geometry> geometry (model)".
+std::string figure_title(const char* what, const config& c) {
+    return fmt::format("{}: {} tip, {} sample, {} geometry (model)", what,
+                       c.model.tip.material.empty() ? "custom" : c.model.tip.material,
+                       c.model.sample.material.empty() ? "custom" : c.model.sample.material,
+                       to_string(c.geometry.kind));
+}
+
+// The constant-current trace z(V) (several biases) or the gap against the setpoint current:
+// one line per setpoint current (trace) or per bias (ladder).
+plot::xy_panel plan_trace_panel(const std::vector<plan_point>& points, bool many_bias) {
+    plot::xy_panel t;
+    t.x_axis = many_bias ? ax("sample bias V [V]") : ax("current setpoint |I| [A]", plot::axis_scale::log10);
+    t.y_axis = ax("planned gap s [nm]");
+    std::vector<double> keys;
+    for (const auto& p : points) {
+        double k = many_bias ? p.setpoint_A : p.bias_V;
+        if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
+    }
+    for (double k : keys) {
+        plot::series s;
+        s.style = plot::draw_style::line_and_markers;
+        s.label = many_bias ? "I = " + current_text(std::abs(k)) : fmt::format("V = {:g} V", k);
+        for (const auto& p : points) {
+            if ((many_bias ? p.setpoint_A : p.bias_V) != k) continue;
+            s.x.push_back(many_bias ? p.bias_V : std::abs(p.setpoint_A));
+            s.y.push_back(p.solution.gap_m * 1e9);  // NaN (unreachable) leaves a gap in the line
+        }
+        t.lines.push_back(s);
+    }
+    t.title = many_bias ? "Constant-current trace z(V)" : "Gap against setpoint current";
+    t.legend = plot::legend_position::top_left;
+    return t;
+}
+
+}  // namespace
+
 plot::figure plan_figure(const config& c, const std::vector<plan_point>& points, int threads) {
     const plan_point* first = nullptr;
     for (const auto& p : points)
@@ -122,10 +162,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         }
     if (!first) throw error(error_kind::no_answer, "no reachable setpoint to plot");
     plot::figure f;
-    f.title = fmt::format("Setpoint plan: {} tip, {} sample, {} geometry (model)",
-                          c.model.tip.material.empty() ? "custom" : c.model.tip.material,
-                          c.model.sample.material.empty() ? "custom" : c.model.sample.material,
-                          to_string(c.geometry.kind));
+    f.title = figure_title("Setpoint plan", c);
 
     // The trace or the ladder, when there is more than one point.
     bool many_bias = false, many_current = false;
@@ -133,31 +170,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         many_bias = many_bias || p.bias_V != points.front().bias_V;
         many_current = many_current || p.setpoint_A != points.front().setpoint_A;
     }
-    if (many_bias || many_current) {
-        plot::xy_panel t;
-        t.x_axis = many_bias ? ax("sample bias V [V]") : ax("current setpoint |I| [A]", plot::axis_scale::log10);
-        t.y_axis = ax("planned gap s [nm]");
-        // One line per setpoint current (trace) or per bias (ladder).
-        std::vector<double> keys;
-        for (const auto& p : points) {
-            double k = many_bias ? p.setpoint_A : p.bias_V;
-            if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
-        }
-        for (double k : keys) {
-            plot::series s;
-            s.style = plot::draw_style::line_and_markers;
-            s.label = many_bias ? "I = " + current_text(std::abs(k)) : fmt::format("V = {:g} V", k);
-            for (const auto& p : points) {
-                if ((many_bias ? p.setpoint_A : p.bias_V) != k) continue;
-                s.x.push_back(many_bias ? p.bias_V : std::abs(p.setpoint_A));
-                s.y.push_back(p.solution.gap_m * 1e9);  // NaN (unreachable) leaves a gap in the line
-            }
-            t.lines.push_back(s);
-        }
-        t.title = many_bias ? "Constant-current trace z(V)" : "Gap against setpoint current";
-        t.legend = plot::legend_position::top_left;
-        f.panels.push_back(t);
-    }
+    if (many_bias || many_current) f.panels.push_back(plan_trace_panel(points, many_bias));
 
     const double s0 = first->solution.gap_m, V0 = first->bias_V;
     double lo = std::max(0.15e-9, s0 - 0.3e-9), hi = s0 + 0.6e-9;
@@ -195,113 +208,135 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
     return f;
 }
 
+namespace {
+
+// predict's results over the gap × bias lists, bias-major: r[ib * gaps + ig].
+struct prediction_table {
+    const std::vector<double>& gaps;
+    const std::vector<double>& biases;
+    const std::vector<prediction>& r;
+    const prediction& at(std::size_t ib, std::size_t ig) const { return r[ib * gaps.size() + ig]; }
+};
+
+bool ascending(const std::vector<double>& v) {
+    for (std::size_t i = 1; i < v.size(); ++i)
+        if (!(v[i] > v[i - 1])) return false;
+    return true;
+}
+
+// log10 |I| over gap and bias (both lists ascending, more than one value each).
+plot::colour_map_panel prediction_map(const prediction_table& t) {
+    plot::colour_map_panel m;
+    m.title = "log₁₀ |I| over gap and bias";
+    m.x_axis = ax("gap s [nm]");
+    m.y_axis = ax("sample bias V [V]");
+    for (double s : t.gaps) m.x.push_back(s * 1e9);
+    m.y = t.biases;
+    for (std::size_t ib = 0; ib < t.biases.size(); ++ib)
+        for (std::size_t ig = 0; ig < t.gaps.size(); ++ig) {
+            const double I = std::abs(t.at(ib, ig).current_A);
+            m.z.push_back(I > 0 ? std::log10(I) : std::numeric_limits<double>::quiet_NaN());
+        }
+    m.colour_bar_label = "log₁₀ (|I| / 1 A)";
+    return m;
+}
+
+// Current and apparent barrier against gap. At most five biases as lines, spread over the list.
+// At V = 0 there is no current (and predict reports the barrier from the conductance): that line
+// stays off the current panel.
+void add_gap_panels(plot::figure& f, const prediction_table& t) {
+    const std::size_t ng = t.gaps.size(), nb = t.biases.size();
+    plot::xy_panel ig = current_gap_panel("Current against gap");
+    plot::xy_panel bg = barrier_gap_panel("Apparent barrier height against gap");
+    const std::size_t lines = std::min<std::size_t>(nb, 5);
+    for (std::size_t l = 0; l < lines; ++l) {
+        const std::size_t ib = lines == 1 ? 0 : l * (nb - 1) / (lines - 1);
+        plot::series a, b;
+        a.label = b.label = fmt::format("V = {:g} V", t.biases[ib]);
+        a.look = b.look = static_cast<int>(l);
+        for (std::size_t k = 0; k < ng; ++k) {
+            a.x.push_back(t.gaps[k] * 1e9);
+            a.y.push_back(std::abs(t.at(ib, k).current_A));
+            b.x.push_back(t.gaps[k] * 1e9);
+            b.y.push_back(t.at(ib, k).q.apparent_barrier_J / J_per_eV);
+        }
+        a.style = b.style = ng > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
+        if (t.biases[ib] != 0.0) ig.lines.push_back(a);
+        bg.lines.push_back(b);
+    }
+    ig.references.push_back(contact_line());
+    f.panels.push_back(ig);
+    f.panels.push_back(bg);
+}
+
+// Current against bias for at most five gaps, spread over the list.
+plot::xy_panel bias_panel(const prediction_table& t) {
+    const std::size_t ng = t.gaps.size(), nb = t.biases.size();
+    plot::xy_panel ib_panel;
+    ib_panel.title = "Current against bias";
+    ib_panel.x_axis = ax("sample bias V [V]");
+    double m = 0, m_small = std::numeric_limits<double>::infinity();
+    const std::size_t lines = std::min<std::size_t>(ng, 5);
+    std::vector<std::size_t> picked;
+    for (std::size_t l = 0; l < lines; ++l) picked.push_back(lines == 1 ? 0 : l * (ng - 1) / (lines - 1));
+    for (std::size_t ig : picked) {
+        double mi = 0;
+        for (std::size_t k = 0; k < nb; ++k) mi = std::max(mi, std::abs(t.at(k, ig).current_A));
+        m = std::max(m, mi);
+        m_small = std::min(m_small, mi);
+    }
+    // Curves more than two decades apart vanish on a linear axis: then |I| on a log axis.
+    const bool log_axis = m_small > 0 && m / m_small > 100.0;
+    auto [scale, unit] = current_unit(m);
+    ib_panel.y_axis = log_axis ? ax("|current| [A]", plot::axis_scale::log10) : ax(fmt::format("current I [{}]", unit));
+    for (std::size_t l = 0; l < picked.size(); ++l) {
+        const std::size_t ig = picked[l];
+        plot::series s;
+        s.label = fmt::format("s = {:g} nm", t.gaps[ig] * 1e9);
+        s.style = nb > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
+        for (std::size_t k = 0; k < nb; ++k) {
+            s.x.push_back(t.biases[k]);
+            s.y.push_back(log_axis ? std::abs(t.at(k, ig).current_A) : t.at(k, ig).current_A * scale);
+        }
+        ib_panel.lines.push_back(s);
+    }
+    if (log_axis) ib_panel.legend = plot::legend_position::bottom_right;
+    if (!log_axis) {
+        ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
+        ib_panel.legend = plot::legend_position::top_left;
+    }
+    return ib_panel;
+}
+
+// One point: its neighbourhood in gap and bias.
+void add_point_panels(plot::figure& f, const config& c, const prediction_table& t, int threads) {
+    const double s0 = t.gaps[0], V0 = t.biases[0];
+    const gap_curve g = gap_dependence(c, V0 == 0.0 ? 1e-3 : V0, std::max(0.15e-9, s0 - 0.3e-9), s0 + 0.6e-9, threads);
+    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
+    ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
+    ig.lines.push_back({{s0 * 1e9}, {std::abs(t.r[0].current_A)}, "this point", plot::draw_style::markers, 1});
+    ig.references.push_back(contact_line());
+    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
+    bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
+    f.panels.push_back(ig);
+    f.panels.push_back(bg);
+    f.panels.push_back(current_bias_panel(c, s0, std::min(c.model.bias_limit_V, std::max(0.5, 1.5 * std::abs(V0))), threads));
+}
+
+}  // namespace
+
 plot::figure predict_figure(const config& c, const std::vector<double>& gaps, const std::vector<double>& biases,
                             const std::vector<prediction>& r, int threads) {
     if (r.size() != gaps.size() * biases.size() || r.empty())
         throw_input({}, "predict_figure: the results do not match the gap and bias lists");
     plot::figure f;
-    f.title = fmt::format("Prediction: {} tip, {} sample, {} geometry (model)",
-                          c.model.tip.material.empty() ? "custom" : c.model.tip.material,
-                          c.model.sample.material.empty() ? "custom" : c.model.sample.material,
-                          to_string(c.geometry.kind));
+    f.title = figure_title("Prediction", c);
+    const prediction_table t{gaps, biases, r};
     const std::size_t ng = gaps.size(), nb = biases.size();
-    auto at = [&](std::size_t ib, std::size_t ig) -> const prediction& { return r[ib * ng + ig]; };
-    auto ascending = [](const std::vector<double>& v) {
-        for (std::size_t i = 1; i < v.size(); ++i)
-            if (!(v[i] > v[i - 1])) return false;
-        return true;
-    };
-
-    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) {
-        plot::colour_map_panel m;
-        m.title = "log₁₀ |I| over gap and bias";
-        m.x_axis = ax("gap s [nm]");
-        m.y_axis = ax("sample bias V [V]");
-        for (double s : gaps) m.x.push_back(s * 1e9);
-        m.y = biases;
-        for (std::size_t ib = 0; ib < nb; ++ib)
-            for (std::size_t ig = 0; ig < ng; ++ig) {
-                const double I = std::abs(at(ib, ig).current_A);
-                m.z.push_back(I > 0 ? std::log10(I) : std::numeric_limits<double>::quiet_NaN());
-            }
-        m.colour_bar_label = "log₁₀ (|I| / 1 A)";
-        f.panels.push_back(m);
-    }
-    if (ng > 1) {
-        plot::xy_panel ig = current_gap_panel("Current against gap");
-        plot::xy_panel bg = barrier_gap_panel("Apparent barrier height against gap");
-        // At most five biases as lines, spread over the list. At V = 0 there is no current (and
-        // predict reports the barrier from the conductance): that line stays off the current panel.
-        const std::size_t lines = std::min<std::size_t>(nb, 5);
-        for (std::size_t l = 0; l < lines; ++l) {
-            const std::size_t ib = lines == 1 ? 0 : l * (nb - 1) / (lines - 1);
-            plot::series a, b;
-            a.label = b.label = fmt::format("V = {:g} V", biases[ib]);
-            a.look = b.look = static_cast<int>(l);
-            for (std::size_t k = 0; k < ng; ++k) {
-                a.x.push_back(gaps[k] * 1e9);
-                a.y.push_back(std::abs(at(ib, k).current_A));
-                b.x.push_back(gaps[k] * 1e9);
-                b.y.push_back(at(ib, k).q.apparent_barrier_J / J_per_eV);
-            }
-            a.style = b.style = ng > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
-            if (biases[ib] != 0.0) ig.lines.push_back(a);
-            bg.lines.push_back(b);
-        }
-        ig.references.push_back(contact_line());
-        f.panels.push_back(ig);
-        f.panels.push_back(bg);
-    }
-    if (nb > 1) {
-        plot::xy_panel ib_panel;
-        ib_panel.title = "Current against bias";
-        ib_panel.x_axis = ax("sample bias V [V]");
-        double m = 0, m_small = std::numeric_limits<double>::infinity();
-        const std::size_t lines = std::min<std::size_t>(ng, 5);
-        std::vector<std::size_t> picked;
-        for (std::size_t l = 0; l < lines; ++l) picked.push_back(lines == 1 ? 0 : l * (ng - 1) / (lines - 1));
-        for (std::size_t ig : picked) {
-            double mi = 0;
-            for (std::size_t k = 0; k < nb; ++k) mi = std::max(mi, std::abs(at(k, ig).current_A));
-            m = std::max(m, mi);
-            m_small = std::min(m_small, mi);
-        }
-        // Curves more than two decades apart vanish on a linear axis: then |I| on a log axis.
-        const bool log_axis = m_small > 0 && m / m_small > 100.0;
-        auto [scale, unit] = current_unit(m);
-        ib_panel.y_axis = log_axis ? ax("|current| [A]", plot::axis_scale::log10) : ax(fmt::format("current I [{}]", unit));
-        for (std::size_t l = 0; l < picked.size(); ++l) {
-            const std::size_t ig = picked[l];
-            plot::series s;
-            s.label = fmt::format("s = {:g} nm", gaps[ig] * 1e9);
-            s.style = nb > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
-            for (std::size_t k = 0; k < nb; ++k) {
-                s.x.push_back(biases[k]);
-                s.y.push_back(log_axis ? std::abs(at(k, ig).current_A) : at(k, ig).current_A * scale);
-            }
-            ib_panel.lines.push_back(s);
-        }
-        if (log_axis) ib_panel.legend = plot::legend_position::bottom_right;
-        if (!log_axis) {
-            ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
-            ib_panel.legend = plot::legend_position::top_left;
-        }
-        f.panels.push_back(ib_panel);
-    }
-    if (ng == 1 && nb == 1) {
-        // One point: its neighbourhood in gap and bias.
-        const double s0 = gaps[0], V0 = biases[0];
-        const gap_curve g = gap_dependence(c, V0 == 0.0 ? 1e-3 : V0, std::max(0.15e-9, s0 - 0.3e-9), s0 + 0.6e-9, threads);
-        plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
-        ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
-        ig.lines.push_back({{s0 * 1e9}, {std::abs(r[0].current_A)}, "this point", plot::draw_style::markers, 1});
-        ig.references.push_back(contact_line());
-        plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
-        bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
-        f.panels.push_back(ig);
-        f.panels.push_back(bg);
-        f.panels.push_back(current_bias_panel(c, s0, std::min(c.model.bias_limit_V, std::max(0.5, 1.5 * std::abs(V0))), threads));
-    }
+    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) f.panels.push_back(prediction_map(t));
+    if (ng > 1) add_gap_panels(f, t);
+    if (nb > 1) f.panels.push_back(bias_panel(t));
+    if (ng == 1 && nb == 1) add_point_panels(f, c, t, threads);
     f.columns = f.panels.size() > 1 ? 2 : 1;
     return f;
 }

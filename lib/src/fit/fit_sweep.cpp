@@ -11,37 +11,6 @@
 
 namespace tipgap {
 
-const char* to_string(fit_model m) {
-    switch (m) {
-        case fit_model::linear: return "linear";
-        case fit_model::offset: return "offset";
-    }
-    return "linear";
-}
-
-bool from_string(std::string_view s, fit_model& out) {
-    if (s == "linear") {
-        out = fit_model::linear;
-        return true;
-    }
-    if (s == "offset") {
-        out = fit_model::offset;
-        return true;
-    }
-    return false;
-}
-
-const char* to_string(contact_kind k) {
-    switch (k) {
-        case contact_kind::none: return "none";
-        case contact_kind::jump: return "jump";
-        case contact_kind::plateau: return "plateau";
-    }
-    return "none";
-}
-
-const char* to_string(fit_status s) { return s == fit_status::converged ? "converged" : "not_converged"; }
-
 void fit_options::validate() const {
     // "<key>: <value> is out of range; expected <range>", the format of every range error.
     auto bad = [](const char* key, const std::string& value, const std::string& expected) {

@@ -12,17 +12,6 @@
 
 namespace tipgap {
 
-const char* to_string(pixel_quality q) {
-    switch (q) {
-        case pixel_quality::ok: return "ok";
-        case pixel_quality::too_few_points: return "too_few_points";
-        case pixel_quality::saturated: return "saturated";
-        case pixel_quality::contact: return "contact";
-        case pixel_quality::poor_fit: return "poor_fit";
-    }
-    return "ok";
-}
-
 void map_options::validate() const {
     fit.validate();
     if (!(min_current_decades > 0.0) || !std::isfinite(min_current_decades))

@@ -36,27 +36,6 @@ column_role role_of(const detail::column_descriptor& d) {
 
 }  // namespace
 
-const char* to_string(sweep_direction d) {
-    switch (d) {
-        case sweep_direction::approach: return "approach";
-        case sweep_direction::retract: return "retract";
-        case sweep_direction::unknown: return "unknown";
-    }
-    return "unknown";
-}
-
-bool from_string(std::string_view s, sweep_direction& out) {
-    if (iequals(s, "approach")) {
-        out = sweep_direction::approach;
-        return true;
-    }
-    if (iequals(s, "retract")) {
-        out = sweep_direction::retract;
-        return true;
-    }
-    return false;
-}
-
 const std::string* curve_metadata::find(std::string_view key) const {
     for (const auto& [k, v] : entries) {
         if (k == key) return &v;
@@ -159,8 +138,8 @@ void read_rows(std::string_view text, const detail::csv_preamble& pre, const std
                 (role == column_role::z ? z : current) = v * columns[c].scale;
             } else if (role == column_role::direction && !from_string(cell, dir)) {
                 throw_input(location{file, row_line, column, ""},
-                            fmt::format("{} in column 'direction' is not a sweep direction; expected approach or retract",
-                                        quote_input(cell)));
+                            fmt::format("{} in column 'direction' is not a sweep direction; expected {}",
+                                        quote_input(cell), accepted_names<sweep_direction>()));
             }
         }
         curve.z_m.push_back(z);

@@ -182,15 +182,6 @@ double current_density(const model_options& o, double gap_m, double bias_V) {
                                             : wkb_current_density(o, gap_m, bias_V);
 }
 
-const char* to_string(regime r) {
-    switch (r) {
-        case regime::direct_tunnelling: return "direct_tunnelling";
-        case regime::field_emission: return "field_emission";
-        case regime::barrier_collapsed: return "barrier_collapsed";
-    }
-    return "?";
-}
-
 regime classify(const model_options& o, double s, double V, double* top_J, double* width_m) {
     barrier b(o, s, V);
     const double eV = si::elementary_charge * V;

@@ -12,25 +12,6 @@
 
 namespace tipgap {
 
-const char* to_string(geometry_kind k) {
-    switch (k) {
-        case geometry_kind::planar: return "planar";
-        case geometry_kind::paraboloid: return "paraboloid";
-        case geometry_kind::contact_anchored: return "contact_anchored";
-    }
-    return "?";
-}
-
-bool from_string(const std::string& s, geometry_kind& out) {
-    for (geometry_kind k : {geometry_kind::planar, geometry_kind::paraboloid, geometry_kind::contact_anchored}) {
-        if (s == to_string(k)) {
-            out = k;
-            return true;
-        }
-    }
-    return false;
-}
-
 void geometry_options::validate() const {
     auto bad = [](const char* key, double value_shown, const char* unit, const char* range) {
         location w;

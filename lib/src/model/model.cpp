@@ -3,46 +3,10 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap {
-
-const char* to_string(image_kind k) {
-    switch (k) {
-        case image_kind::none: return "none";
-        case image_kind::exact: return "exact";
-        case image_kind::approximate: return "approximate";
-    }
-    return "?";
-}
-
-const char* to_string(method_kind k) {
-    switch (k) {
-        case method_kind::wkb: return "wkb";
-        case method_kind::simmons: return "simmons";
-    }
-    return "?";
-}
-
-bool from_string(const std::string& s, image_kind& out) {
-    for (image_kind k : {image_kind::none, image_kind::exact, image_kind::approximate}) {
-        if (s == to_string(k)) {
-            out = k;
-            return true;
-        }
-    }
-    return false;
-}
-
-bool from_string(const std::string& s, method_kind& out) {
-    for (method_kind k : {method_kind::wkb, method_kind::simmons}) {
-        if (s == to_string(k)) {
-            out = k;
-            return true;
-        }
-    }
-    return false;
-}
 
 namespace {
 // Throws "<key>: <value> <unit> is out of range; expected <range>" when !ok. `value` is shown in
@@ -58,7 +22,7 @@ void require(bool ok, const char* key, double value, const char* unit, const std
 }  // namespace
 
 void model_options::validate() const {
-    constexpr double eV = 1.602176634e-19;
+    constexpr double eV = si::electron_volt;
     auto in = [](double v, double lo, double hi, bool lo_open) {
         return std::isfinite(v) && (lo_open ? v > lo : v >= lo) && v <= hi;
     };

@@ -26,16 +26,6 @@ void plan_options::validate() const {
     if (!(slope_step_m > 0 && slope_step_m <= 0.1e-9)) bad("slope_step", "must be in (0, 0.1 nm]");
 }
 
-const char* to_string(solve_status s) {
-    switch (s) {
-        case solve_status::converged: return "converged";
-        case solve_status::current_too_high: return "current_too_high";
-        case solve_status::current_too_low: return "current_too_low";
-        case solve_status::not_converged: return "not_converged";
-    }
-    return "?";
-}
-
 std::string unreachable_warning(solve_status status, double gap_min_m, double gap_max_m) {
     // More current at a given gap needs a larger |bias|, and the other way round.
     const char* fix = status == solve_status::current_too_high

@@ -2,6 +2,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -49,7 +50,7 @@ std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::p
                                        const plan_options& o, int threads) {
     o.validate();
     std::vector<plan_point> out(setpoints.size());
-    parallel_for(setpoints.size(), threads,
+    detail::parallel_for(setpoints.size(), threads,
                  [&](std::size_t i) { out[i] = plan_setpoint(c, setpoints[i].first, setpoints[i].second, o); });
     std::size_t reachable = 0;
     for (const auto& p : out) reachable += p.reachable();

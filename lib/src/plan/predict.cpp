@@ -1,13 +1,9 @@
 #include "tipgap/plan/predict.hpp"
 
-#include <atomic>
 #include <cmath>
-#include <exception>
 #include <fmt/format.h>
-#include <functional>
-#include <mutex>
-#include <thread>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -35,37 +31,6 @@ void validate_operating_point(const model_options& m, double gap, double bias, c
     }
 }
 
-void parallel_for(std::size_t n, int threads, const std::function<void(std::size_t)>& f) {
-    unsigned hw = std::max(1u, std::thread::hardware_concurrency());
-    std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : hw;
-    workers = std::min(workers, n);
-    if (workers <= 1) {
-        for (std::size_t i = 0; i < n; ++i) f(i);
-        return;
-    }
-    std::atomic<std::size_t> next{0};
-    std::exception_ptr failure;
-    std::mutex m;
-    auto work = [&] {
-        for (;;) {
-            std::size_t i = next.fetch_add(1);
-            if (i >= n) return;
-            try {
-                f(i);
-            } catch (...) {
-                std::lock_guard<std::mutex> lock(m);
-                if (!failure) failure = std::current_exception();
-                next = n;
-                return;
-            }
-        }
-    };
-    std::vector<std::thread> pool;
-    for (std::size_t t = 0; t < workers; ++t) pool.emplace_back(work);
-    for (auto& t : pool) t.join();
-    if (failure) std::rethrow_exception(failure);
-}
-
 std::vector<prediction> predict_points(const config& c, const std::vector<std::pair<double, double>>& points,
                                        int threads) {
     for (const auto& [s, V] : points) validate_operating_point(c.model, s, V, "gap", "bias");
@@ -75,7 +40,7 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
     const double area = c.geometry.kind == geometry_kind::planar ? c.geometry.area_m2
                         : fixed_area                              ? contact_anchored_area(c.model, c.geometry)
                                                                   : 0.0;
-    parallel_for(points.size(), threads, [&](std::size_t i) {
+    detail::parallel_for(points.size(), threads, [&](std::size_t i) {
         auto [s, V] = points[i];
         prediction& p = out[i];
         p.q = evaluate_point(c.model, s, V);

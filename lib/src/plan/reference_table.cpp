@@ -3,6 +3,7 @@
 
 #include <cmath>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/plan/predict.hpp"
 
@@ -22,7 +23,7 @@ std::vector<reference_row> reference_table(const config& c, const std::vector<st
         }
     }
     std::vector<reference_row> rows(materials.size());
-    parallel_for(materials.size(), threads, [&](std::size_t i) {
+    detail::parallel_for(materials.size(), threads, [&](std::size_t i) {
         const material_entry& m = materials[i];
         reference_row& r = rows[i];
         r.sample = m.name;

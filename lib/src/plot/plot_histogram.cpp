@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/quantile.hpp"
 #include "plot/detail/plot_draw.hpp"
 #include "plot/detail/plot_style.hpp"
 
@@ -12,14 +13,6 @@ namespace {
 
 constexpr int max_bins = 10000;      // more bars than any page has pixels
 constexpr int max_auto_bins = 200;  // beyond this bars are thinner than a line: common practice, no source
-
-// Linear-interpolation quantile of sorted data (the "type 7" definition, Hyndman & Fan 1996).
-double quantile_sorted(const std::vector<double>& s, double q) {
-    const double h = (static_cast<double>(s.size()) - 1.0) * q;
-    const auto i = static_cast<std::size_t>(std::floor(h));
-    if (i + 1 >= s.size()) return s.back();
-    return s[i] + (h - static_cast<double>(i)) * (s[i + 1] - s[i]);
-}
 
 void check_edges(const std::vector<double>& edges, const location& where) {
     if (edges.size() < 2) throw_input(where, "histogram: edges need at least 2 values");
@@ -56,7 +49,7 @@ histogram_bins make_histogram(const std::vector<double>& values, int bins, const
             // Freedman & Diaconis, Z. Wahrscheinlichkeitstheorie verw. Gebiete 57, 453 (1981):
             // width 2 IQR n^(-1/3). Sturges' ceil(log2 n) + 1 when the IQR is zero.
             const double n = static_cast<double>(finite.size());
-            const double iqr = finite.size() >= 2 ? quantile_sorted(finite, 0.75) - quantile_sorted(finite, 0.25) : 0.0;
+            const double iqr = finite.size() >= 2 ? tipgap::detail::quantile_sorted(finite, 0.75) - tipgap::detail::quantile_sorted(finite, 0.25) : 0.0;
             if (iqr > 0) bins = static_cast<int>(std::ceil((hi - lo) / (2.0 * iqr * std::cbrt(1.0 / n))));
             else bins = static_cast<int>(std::ceil(std::log2(std::max(n, 1.0)))) + 1;
             bins = std::clamp(bins, 1, max_auto_bins);

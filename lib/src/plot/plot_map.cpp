@@ -69,13 +69,13 @@ void validate_colour_map(const colour_map_panel& p, const location& where) {
     if (p.z_min && p.z_max && !(*p.z_max > *p.z_min)) throw_input(where, "colour map: z_max must be greater than z_min");
 }
 
-void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
-    const std::size_t nx = p.x.size(), ny = p.y.size();
-    std::vector<PLFLT> xe = cell_edges(p.x), ye = cell_edges(p.y);
+namespace {
 
-    // Colour range: explicit, else the finite data; a flat map gets a unit-wide range around it.
+// Colour range: explicit, else the finite data; a flat map gets a unit-wide range around it.
+// Counts the cells without a value in `missing`.
+range colour_range(const colour_map_panel& p, std::size_t& missing) {
     double lo = std::numeric_limits<double>::infinity(), hi = -lo;
-    std::size_t missing = 0;
+    missing = 0;
     for (double v : p.z) {
         if (std::isnan(v)) {
             ++missing;
@@ -94,6 +94,79 @@ void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
         lo -= half;
         hi += half;
     }
+    return {lo, hi};
+}
+
+// The cells, coloured over [z.lo, z.hi] on top of the hatched no-value background. PLplot wants
+// data[ix][iy]; cells outside [zmin, zmax] are not drawn, which is how NaN cells let the
+// background show: they become -inf, below any zmin.
+void draw_cells(plstream& pls, const colour_map_panel& p, std::vector<PLFLT>& xe, std::vector<PLFLT>& ye,
+                const range& z) {
+    const std::size_t nx = p.x.size(), ny = p.y.size();
+    // Background for cells without a value: neutral grey with a diagonal hatch, so that even in a
+    // grey print it matches no palette colour.
+    draw_no_value_swatch(pls, xe.front(), xe.back(), ye.front(), ye.back());
+    std::vector<PLFLT> data(nx * ny);
+    std::vector<const PLFLT*> columns(nx);
+    for (std::size_t ix = 0; ix < nx; ++ix) {
+        for (std::size_t iy = 0; iy < ny; ++iy) {
+            const double v = p.z[iy * nx + ix];
+            data[ix * ny + iy] = std::isnan(v) ? -std::numeric_limits<double>::infinity() : v;
+        }
+        columns[ix] = &data[ix * ny];
+    }
+    PLcGrid grid{xe.data(), ye.data(), nullptr, static_cast<PLINT>(nx + 1), static_cast<PLINT>(ny + 1), 0};
+    const double big = std::numeric_limits<double>::max();
+    pls.imagefr(columns.data(), static_cast<PLINT>(nx), static_cast<PLINT>(ny), 0, static_cast<PLFLT>(nx), 0,
+                static_cast<PLFLT>(ny), -big, big, z.lo, z.hi, plcallback::tr1, &grid);
+}
+
+// Colour bar to the right of the plot area, full height.
+void draw_colour_bar(plstream& pls, const std::string& bar_label, const range& z) {
+    PLFLT w = 0, h = 0;
+    PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
+    const std::string label = plplot_text(bar_label);
+    const char* labels[1] = {label.c_str()};
+    const char* axis_opts[1] = {"bcmstv"};
+    PLFLT ticks[1] = {0.0};
+    PLINT sub_ticks[1] = {0};
+    PLFLT values[2] = {z.lo, z.hi};
+    const PLFLT* value_rows[1] = {values};
+    PLINT n_values[1] = {2};
+    pls.col0(ci_ink);
+    pls.width(frame_width);
+    pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
+                 PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
+                 ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
+                 sub_ticks, n_values, value_rows);
+}
+
+// A key for the hatch: a swatch at the top right, above the plot area, with its text to the left
+// of it (PLplot cannot measure text, so the text is right-aligned against the swatch rather than
+// the swatch placed after the text).
+void draw_no_value_key(plstream& pls, const cell& c, std::size_t missing, std::size_t cells) {
+    PLFLT vx0, vx1, vy0, vy1;
+    pls.gvpd(vx0, vx1, vy0, vy1);
+    PLFLT def_mm = 0, height_mm = 0;
+    pls.gchr(def_mm, height_mm);
+    const double sw = 1.6 * height_mm / c.page_width_mm, sh = 1.1 * height_mm / c.page_height_mm;
+    const double y0 = vy1 + 0.45 * height_mm / c.page_height_mm;
+    pls.vpor(vx1 - sw, vx1, y0, y0 + sh);
+    pls.wind(0, 1, 0, 1);
+    draw_no_value_swatch(pls, 0, 1, 0, 1);
+    pls.col0(ci_ink);
+    pls.schr(0, note_scale);
+    pls.mtex("lv", 0.6, 0.5, 1.0, plplot_text(fmt::format("no value: {} of {} cells", missing, cells)).c_str());
+    pls.schr(0, 1.0);
+    pls.vpor(vx0, vx1, vy0, vy1);
+}
+
+}  // namespace
+
+void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
+    std::vector<PLFLT> xe = cell_edges(p.x), ye = cell_edges(p.y);
+    std::size_t missing = 0;
+    const range z = colour_range(p, missing);
 
     // Room on the right for the colour bar, its numbers and its label.
     margins m;
@@ -108,67 +181,10 @@ void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
     }
     pls.wind(wx0, wx1, wy0, wy1);
 
-    // Background for cells without a value: neutral grey with a diagonal hatch, so that even in a
-    // grey print it matches no palette colour.
-    draw_no_value_swatch(pls, xe.front(), xe.back(), ye.front(), ye.back());
-
-    // PLplot wants data[ix][iy]; cells outside [zmin, zmax] are not drawn, which is how NaN cells
-    // let the background show: they become -inf, below any zmin.
-    std::vector<PLFLT> data(nx * ny);
-    std::vector<const PLFLT*> columns(nx);
-    for (std::size_t ix = 0; ix < nx; ++ix) {
-        for (std::size_t iy = 0; iy < ny; ++iy) {
-            const double v = p.z[iy * nx + ix];
-            data[ix * ny + iy] = std::isnan(v) ? -std::numeric_limits<double>::infinity() : v;
-        }
-        columns[ix] = &data[ix * ny];
-    }
-    PLcGrid grid{xe.data(), ye.data(), nullptr, static_cast<PLINT>(nx + 1), static_cast<PLINT>(ny + 1), 0};
-    const double big = std::numeric_limits<double>::max();
-    pls.imagefr(columns.data(), static_cast<PLINT>(nx), static_cast<PLINT>(ny), 0, static_cast<PLFLT>(nx), 0,
-                static_cast<PLFLT>(ny), -big, big, lo, hi, plcallback::tr1, &grid);
-
+    draw_cells(pls, p, xe, ye, z);
     draw_frame(pls, p.title, p.x_axis, p.y_axis);
-
-    // Colour bar to the right of the plot area, full height.
-    {
-        PLFLT w = 0, h = 0;
-        PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
-        const std::string label = plplot_text(p.colour_bar_label);
-        const char* labels[1] = {label.c_str()};
-        const char* axis_opts[1] = {"bcmstv"};
-        PLFLT ticks[1] = {0.0};
-        PLINT sub_ticks[1] = {0};
-        PLFLT values[2] = {lo, hi};
-        const PLFLT* value_rows[1] = {values};
-        PLINT n_values[1] = {2};
-        pls.col0(ci_ink);
-        pls.width(frame_width);
-        pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
-                     PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
-                     ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
-                     sub_ticks, n_values, value_rows);
-    }
-
-    // A key for the hatch, only when some cells have no value: a swatch at the top right, above
-    // the plot area, with its text to the left of it (PLplot cannot measure text, so the text is
-    // right-aligned against the swatch rather than the swatch placed after the text).
-    if (missing > 0) {
-        PLFLT vx0, vx1, vy0, vy1;
-        pls.gvpd(vx0, vx1, vy0, vy1);
-        PLFLT def_mm = 0, height_mm = 0;
-        pls.gchr(def_mm, height_mm);
-        const double sw = 1.6 * height_mm / c.page_width_mm, sh = 1.1 * height_mm / c.page_height_mm;
-        const double y0 = vy1 + 0.45 * height_mm / c.page_height_mm;
-        pls.vpor(vx1 - sw, vx1, y0, y0 + sh);
-        pls.wind(0, 1, 0, 1);
-        draw_no_value_swatch(pls, 0, 1, 0, 1);
-        pls.col0(ci_ink);
-        pls.schr(0, note_scale);
-        pls.mtex("lv", 0.6, 0.5, 1.0, plplot_text(fmt::format("no value: {} of {} cells", missing, p.z.size())).c_str());
-        pls.schr(0, 1.0);
-        pls.vpor(vx0, vx1, vy0, vy1);
-    }
+    draw_colour_bar(pls, p.colour_bar_label, z);
+    if (missing > 0) draw_no_value_key(pls, c, missing, p.z.size());
 }
 
 }  // namespace tipgap::plot::detail

@@ -67,10 +67,11 @@ void validate_xy(const xy_panel& p, const location& where) {
             throw_input(where, fmt::format("annotation {}: position is not finite", i + 1));
 }
 
-void draw_xy(plstream& pls, const xy_panel& p, const cell& c) {
-    const axis_scale sx = p.x_axis.scale, sy = p.y_axis.scale;
+namespace {
 
-    // Ranges from everything drawn in data units; reference lines count too so they stay in view.
+// Ranges from everything drawn in data units; reference lines count too so they stay in view.
+void xy_ranges(const xy_panel& p, range& rx, range& ry) {
+    const axis_scale sx = p.x_axis.scale, sy = p.y_axis.scale;
     std::vector<double> all_x, all_y;
     for (const series& s : p.lines)
         for (std::size_t i = 0; i < s.x.size(); ++i) {
@@ -88,47 +89,53 @@ void draw_xy(plstream& pls, const xy_panel& p, const cell& c) {
         }
     for (const reference_line& r : p.references)
         (r.direction == orientation::vertical ? all_x : all_y).push_back(to_plot(r.value, r.direction == orientation::vertical ? sx : sy));
-    const range rx = display_range(all_x, p.x_axis), ry = display_range(all_y, p.y_axis);
+    rx = display_range(all_x, p.x_axis);
+    ry = display_range(all_y, p.y_axis);
+}
 
-    set_viewport(pls, c, margins{});
-    pls.wind(rx.lo, rx.hi, ry.lo, ry.hi);
-    draw_grid(pls, p.x_axis, p.y_axis);
+// One band: a polygon along the upper edge and back along the lower one, per finite run.
+void fill_band(plstream& pls, const band& b, axis_scale sx, axis_scale sy) {
+    std::vector<PLFLT> px, py;
+    auto flush = [&](std::size_t from, std::size_t to) {
+        px.clear();
+        py.clear();
+        for (std::size_t i = from; i < to; ++i) {
+            px.push_back(to_plot(b.x[i], sx));
+            py.push_back(to_plot(b.y_high[i], sy));
+        }
+        for (std::size_t i = to; i-- > from;) {
+            px.push_back(to_plot(b.x[i], sx));
+            py.push_back(to_plot(b.y_low[i], sy));
+        }
+        if (px.size() >= 4) pls.fill(static_cast<PLINT>(px.size()), px.data(), py.data());
+    };
+    std::size_t start = 0;
+    for (std::size_t i = 0; i <= b.x.size(); ++i) {
+        const bool ok = i < b.x.size() && std::isfinite(to_plot(b.x[i], sx)) &&
+                        std::isfinite(to_plot(b.y_low[i], sy)) && std::isfinite(to_plot(b.y_high[i], sy));
+        if (!ok) {
+            flush(start, i);
+            start = i + 1;
+        }
+    }
+}
 
-    // Legend order: series, then bands, then reference lines (what the reader looks for first).
-    std::vector<legend_entry> legend, band_keys, reference_keys;
-
-    // Bands: a polygon along the upper edge and back along the lower one, per finite run.
+// Bands, in their tints; returns their legend keys.
+std::vector<legend_entry> draw_bands(plstream& pls, const xy_panel& p) {
+    std::vector<legend_entry> keys;
     for (const band& b : p.bands) {
-        std::vector<PLFLT> px, py;
-        auto flush = [&](std::size_t from, std::size_t to) {
-            px.clear();
-            py.clear();
-            for (std::size_t i = from; i < to; ++i) {
-                px.push_back(to_plot(b.x[i], sx));
-                py.push_back(to_plot(b.y_high[i], sy));
-            }
-            for (std::size_t i = to; i-- > from;) {
-                px.push_back(to_plot(b.x[i], sx));
-                py.push_back(to_plot(b.y_low[i], sy));
-            }
-            if (px.size() >= 4) pls.fill(static_cast<PLINT>(px.size()), px.data(), py.data());
-        };
         pls.col0(ci_tint + b.look % static_cast<int>(look_count));
         pls.psty(0);
-        std::size_t start = 0;
-        for (std::size_t i = 0; i <= b.x.size(); ++i) {
-            const bool ok = i < b.x.size() && std::isfinite(to_plot(b.x[i], sx)) &&
-                            std::isfinite(to_plot(b.y_low[i], sy)) && std::isfinite(to_plot(b.y_high[i], sy));
-            if (!ok) {
-                flush(start, i);
-                start = i + 1;
-            }
-        }
+        fill_band(pls, b, p.x_axis.scale, p.y_axis.scale);
         if (!b.label.empty())
-            band_keys.push_back({legend_entry::kind::box, b.label, ci_tint + b.look % static_cast<int>(look_count), false, {}, 0.0, ""});
+            keys.push_back({legend_entry::kind::box, b.label, ci_tint + b.look % static_cast<int>(look_count), false, {}, 0.0, ""});
     }
+    return keys;
+}
 
-    // Reference lines.
+// Reference lines across the whole range, each with its own dash; returns their legend keys.
+std::vector<legend_entry> draw_references(plstream& pls, const xy_panel& p, const range& rx, const range& ry) {
+    std::vector<legend_entry> keys;
     for (std::size_t i = 0; i < p.references.size(); ++i) {
         const reference_line& r = p.references[i];
         const dash_pattern dash = reference_dash(static_cast<int>(i));
@@ -136,23 +143,27 @@ void draw_xy(plstream& pls, const xy_panel& p, const cell& c) {
         pls.width(reference_width);
         apply_dash(pls, dash);
         if (r.direction == orientation::horizontal) {
-            const double v = to_plot(r.value, sy);
+            const double v = to_plot(r.value, p.y_axis.scale);
             if (std::isfinite(v)) pls.join(rx.lo, v, rx.hi, v);
         } else {
-            const double v = to_plot(r.value, sx);
+            const double v = to_plot(r.value, p.x_axis.scale);
             if (std::isfinite(v)) pls.join(v, ry.lo, v, ry.hi);
         }
-        if (!r.label.empty()) reference_keys.push_back({legend_entry::kind::line, r.label, ci_reference, true, dash, reference_width, ""});
+        if (!r.label.empty()) keys.push_back({legend_entry::kind::line, r.label, ci_reference, true, dash, reference_width, ""});
     }
     pls.lsty(1);
+    return keys;
+}
 
-    // Series.
+// Series in their looks (line, markers or both); returns their legend entries.
+std::vector<legend_entry> draw_series(plstream& pls, const xy_panel& p) {
+    std::vector<legend_entry> legend;
     const std::vector<int> looks = assign_looks(p.lines);
     for (std::size_t i = 0; i < p.lines.size(); ++i) {
         const series& s = p.lines[i];
         const look& l = look_at(looks[i]);
         const int colour = ci_look + looks[i] % static_cast<int>(look_count);
-        const std::vector<double> x = transformed(s.x, sx), y = transformed(s.y, sy);
+        const std::vector<double> x = transformed(s.x, p.x_axis.scale), y = transformed(s.y, p.y_axis.scale);
         const bool line = s.style != draw_style::markers, marks = s.style != draw_style::line;
         pls.col0(colour);
         if (line) {
@@ -165,15 +176,34 @@ void draw_xy(plstream& pls, const xy_panel& p, const cell& c) {
         if (!s.label.empty())
             legend.push_back({legend_entry::kind::line, s.label, colour, line, l.dash, series_width, marks ? l.marker : ""});
     }
+    return legend;
+}
 
-    // Notes.
+void draw_notes(plstream& pls, const xy_panel& p) {
     pls.col0(ci_ink);
     pls.schr(0, note_scale);
     for (const annotation& a : p.notes) {
-        const double x = to_plot(a.x, sx), y = to_plot(a.y, sy);
+        const double x = to_plot(a.x, p.x_axis.scale), y = to_plot(a.y, p.y_axis.scale);
         if (std::isfinite(x) && std::isfinite(y)) pls.ptex(x, y, 1.0, 0.0, a.justification, plplot_text(a.text).c_str());
     }
     pls.schr(0, 1.0);
+}
+
+}  // namespace
+
+void draw_xy(plstream& pls, const xy_panel& p, const cell& c) {
+    range rx, ry;
+    xy_ranges(p, rx, ry);
+    set_viewport(pls, c, margins{});
+    pls.wind(rx.lo, rx.hi, ry.lo, ry.hi);
+    draw_grid(pls, p.x_axis, p.y_axis);
+
+    // Drawn bands first (underneath), then reference lines, series and notes. Legend order:
+    // series, then bands, then reference lines (what the reader looks for first).
+    const std::vector<legend_entry> band_keys = draw_bands(pls, p);
+    const std::vector<legend_entry> reference_keys = draw_references(pls, p, rx, ry);
+    std::vector<legend_entry> legend = draw_series(pls, p);
+    draw_notes(pls, p);
 
     draw_frame(pls, p.title, p.x_axis, p.y_axis);
     legend.insert(legend.end(), band_keys.begin(), band_keys.end());

@@ -13,25 +13,6 @@
 
 namespace tipgap {
 
-const char* to_string(synth_sweeps s) {
-    switch (s) {
-        case synth_sweeps::retract: return "retract";
-        case synth_sweeps::approach: return "approach";
-        case synth_sweeps::approach_retract: return "approach_retract";
-    }
-    return "retract";
-}
-
-bool from_string(std::string_view s, synth_sweeps& out) {
-    for (synth_sweeps k : {synth_sweeps::retract, synth_sweeps::approach, synth_sweeps::approach_retract}) {
-        if (s == to_string(k)) {
-            out = k;
-            return true;
-        }
-    }
-    return false;
-}
-
 void synth_options::validate(const model_options& model) const {
     auto bad = [](const char* key, const std::string& what) { throw_input(location{"", 0, 0, key}, what); };
     if (!(std::isfinite(bias_V) && bias_V != 0.0 && std::abs(bias_V) <= model.bias_limit_V))

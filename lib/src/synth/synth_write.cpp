@@ -196,7 +196,7 @@ truth_record read_truth(const std::string& path) {
         synth_sweep_truth st;
         const std::string d = s["direction"] ? s["direction"].as<std::string>() : std::string();
         if (!from_string(d, st.direction))
-            throw_input(location{path, s.Mark().line + 1, 0, "sweeps.direction"}, "expected approach or retract");
+            throw_input(location{path, s.Mark().line + 1, 0, "sweeps.direction"}, "expected " + accepted_names<sweep_direction>());
         st.first_row = static_cast<std::size_t>(get(s, "sweeps", "first_row")) - 1;
         st.rows = static_cast<std::size_t>(get(s, "sweeps", "rows"));
         st.usable_points = static_cast<std::size_t>(get(s, "sweeps", "usable_points"));

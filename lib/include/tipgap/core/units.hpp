@@ -3,6 +3,7 @@
 #include <string>
 #include <string_view>
 
+#include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap {
@@ -38,6 +39,6 @@ double parse_number(std::string_view text, const location& where = {});
 // Unit conversions used at the edges.
 inline constexpr double nm = 1e-9;
 inline constexpr double angstrom = 1e-10;
-inline constexpr double eV = 1.602176634e-19;
+inline constexpr double eV = si::electron_volt;
 
 }  // namespace tipgap

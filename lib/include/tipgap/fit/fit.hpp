@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/core/enum_names.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap {
@@ -41,8 +42,10 @@ enum class fit_model {
     linear,  // weighted linear least squares of ln|I| against z
     offset,  // nonlinear least squares I = I0 exp(-2 κ (z - z_ref)) + c (Levenberg-Marquardt)
 };
-const char* to_string(fit_model m);
-bool from_string(std::string_view s, fit_model& out);
+template <>
+struct enum_names<fit_model> {
+    static constexpr enum_name<fit_model> table[] = {{fit_model::linear, "linear"}, {fit_model::offset, "offset"}};
+};
 
 struct fit_options {
     fit_model model = fit_model::linear;
@@ -103,7 +106,11 @@ struct profile_point {
 };
 
 enum class contact_kind { none, jump, plateau };
-const char* to_string(contact_kind k);
+template <>
+struct enum_names<contact_kind> {
+    static constexpr enum_name<contact_kind> table[] = {
+        {contact_kind::none, "none"}, {contact_kind::jump, "jump"}, {contact_kind::plateau, "plateau"}};
+};
 
 struct contact_result {
     contact_kind kind = contact_kind::none;
@@ -119,7 +126,11 @@ enum class fit_status {
     converged,      // the fit finished normally
     not_converged,  // the offset model hit its iteration limit or stalled; values are the last iterate
 };
-const char* to_string(fit_status s);
+template <>
+struct enum_names<fit_status> {
+    static constexpr enum_name<fit_status> table[] = {{fit_status::converged, "converged"},
+                                                      {fit_status::not_converged, "not_converged"}};
+};
 
 struct fit_result {
     fit_model model = fit_model::linear;

@@ -22,6 +22,7 @@
 #include <vector>
 
 #include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/fit/fit.hpp"
 
@@ -30,7 +31,7 @@ namespace tipgap {
 struct model_fit_options {
     int max_iterations = 60;             // Levenberg-Marquardt iterations, [5, 1000]
     std::size_t grid_points = 33;        // gaps per model evaluation grid, [8, 1000]
-    double work_function_step_J = 0.01 * 1.602176634e-19;  // central-difference step in φ̄ (J), > 0
+    double work_function_step_J = 0.01 * si::electron_volt;  // central-difference step in φ̄ (J), > 0
     // Starting gap offset (m); NaN: from a detected contact, else matched to the current with the
     // config's area.
     double initial_gap_offset_m = std::numeric_limits<double>::quiet_NaN();

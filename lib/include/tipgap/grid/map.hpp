@@ -30,8 +30,14 @@ enum class pixel_quality : std::uint8_t {
                          // did not converge
 };
 inline constexpr std::size_t pixel_quality_count = 5;
-// "ok", "too_few_points", "saturated", "contact", "poor_fit".
-const char* to_string(pixel_quality q);
+template <>
+struct enum_names<pixel_quality> {
+    static constexpr enum_name<pixel_quality> table[] = {{pixel_quality::ok, "ok"},
+                                                         {pixel_quality::too_few_points, "too_few_points"},
+                                                         {pixel_quality::saturated, "saturated"},
+                                                         {pixel_quality::contact, "contact"},
+                                                         {pixel_quality::poor_fit, "poor_fit"}};
+};
 // Precedence when several codes apply: too_few_points, poor_fit, contact, saturated, ok.
 
 struct map_options {

@@ -17,6 +17,8 @@
 #include <utility>
 #include <vector>
 
+#include "tipgap/core/enum_names.hpp"
+
 namespace tipgap {
 
 enum class sweep_direction {
@@ -25,10 +27,15 @@ enum class sweep_direction {
     unknown,   // a single sweep that does not move monotonically
 };
 
-// "approach", "retract", "unknown" (used in JSON/CSV output and in the direction column).
-const char* to_string(sweep_direction d);
-// Accepts "approach" and "retract" (any letter case); false for anything else.
-bool from_string(std::string_view s, sweep_direction& out);
+// "approach", "retract", "unknown" in JSON/CSV output; the direction column accepts "approach" and
+// "retract" in any letter case.
+template <>
+struct enum_names<sweep_direction> {
+    static constexpr bool ignore_case = true;
+    static constexpr enum_name<sweep_direction> table[] = {{sweep_direction::approach, "approach"},
+                                                           {sweep_direction::retract, "retract"},
+                                                           {sweep_direction::unknown, "unknown", false}};
+};
 
 // The "# key: value" lines of a curve file. Known keys are also parsed into SI fields.
 struct curve_metadata {

@@ -22,7 +22,12 @@ enum class regime {
     field_emission,     // |eV| exceeds the barrier on the collector side: triangular barrier
     barrier_collapsed,  // the image-lowered top is below the emitting Fermi level: model invalid
 };
-const char* to_string(regime r);
+template <>
+struct enum_names<regime> {
+    static constexpr enum_name<regime> table[] = {{regime::direct_tunnelling, "direct_tunnelling"},
+                                                  {regime::field_emission, "field_emission"},
+                                                  {regime::barrier_collapsed, "barrier_collapsed"}};
+};
 
 // Everything `predict` reports at one point.
 struct point_quantities {

@@ -11,8 +11,12 @@ enum class geometry_kind {
     paraboloid,        // apex radius R: local gap s + r^2/(2R), I = ∫ J 2 pi r dr
     contact_anchored,  // effective area fixed so that the conductance is G0 at the contact distance
 };
-const char* to_string(geometry_kind k);
-bool from_string(const std::string& s, geometry_kind& out);
+template <>
+struct enum_names<geometry_kind> {
+    static constexpr enum_name<geometry_kind> table[] = {{geometry_kind::planar, "planar"},
+                                                         {geometry_kind::paraboloid, "paraboloid"},
+                                                         {geometry_kind::contact_anchored, "contact_anchored"}};
+};
 
 struct geometry_options {
     geometry_kind kind = geometry_kind::planar;

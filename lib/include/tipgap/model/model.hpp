@@ -2,6 +2,9 @@
 // The junction: tip and sample electrodes, barrier options, temperature, method and tolerance.
 #include <string>
 
+#include "tipgap/core/constants.hpp"
+#include "tipgap/core/enum_names.hpp"
+
 namespace tipgap {
 
 enum class image_kind {
@@ -16,16 +19,21 @@ enum class method_kind {
               // A sqrt(phibar) < 2) the numerical WKB result is used instead
 };
 
-// Enum <-> string, the one place for the names used in YAML, on the command line and in JSON.
-const char* to_string(image_kind k);
-const char* to_string(method_kind k);
-bool from_string(const std::string& s, image_kind& out);
-bool from_string(const std::string& s, method_kind& out);
+// Names in YAML, on the command line and in JSON (tipgap/core/enum_names.hpp); message order.
+template <>
+struct enum_names<image_kind> {
+    static constexpr enum_name<image_kind> table[] = {
+        {image_kind::exact, "exact"}, {image_kind::approximate, "approximate"}, {image_kind::none, "none"}};
+};
+template <>
+struct enum_names<method_kind> {
+    static constexpr enum_name<method_kind> table[] = {{method_kind::wkb, "wkb"}, {method_kind::simmons, "simmons"}};
+};
 
 struct electrode {
-    std::string material;               // name from the materials library, or empty
-    double work_function_J = 4.5 * 1.602176634e-19;  // J, (0, 20 eV]
-    double fermi_energy_J = 5.5 * 1.602176634e-19;   // J, free-electron Fermi energy, (0, 50 eV]
+    std::string material;                              // name from the materials library, or empty
+    double work_function_J = 4.5 * si::electron_volt;  // J, (0, 20 eV]
+    double fermi_energy_J = 5.5 * si::electron_volt;   // J, free-electron Fermi energy, (0, 50 eV]
 };
 
 struct model_options {

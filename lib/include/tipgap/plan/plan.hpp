@@ -40,7 +40,13 @@ enum class solve_status {
     current_too_low,   // even at gap_max_m the current is above the setpoint
     not_converged,     // max_evaluations used up (gap_m is the best point found)
 };
-const char* to_string(solve_status s);
+template <>
+struct enum_names<solve_status> {
+    static constexpr enum_name<solve_status> table[] = {{solve_status::converged, "converged"},
+                                                        {solve_status::current_too_high, "current_too_high"},
+                                                        {solve_status::current_too_low, "current_too_low"},
+                                                        {solve_status::not_converged, "not_converged"}};
+};
 
 // Result of one gap solve.
 struct gap_solution {

@@ -2,7 +2,6 @@
 // Forward predictions at many (gap, bias) points: current density, total current, derived
 // quantities and operating warnings. Parallel over points; results do not depend on thread count.
 #include <string>
-#include <functional>
 #include <utility>
 #include <vector>
 
@@ -30,8 +29,5 @@ void validate_operating_point(const model_options& model, double gap_m, double b
 // points: (gap_m, bias_V) pairs; threads: worker count (0 = all cores).
 std::vector<prediction> predict_points(const config& c, const std::vector<std::pair<double, double>>& points,
                                        int threads = 0);
-
-// Runs f(i) for i in [0, n) on `threads` workers (0 = hardware concurrency); exceptions propagate.
-void parallel_for(std::size_t n, int threads, const std::function<void(std::size_t)>& f);
 
 }  // namespace tipgap

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
 #include "tipgap/plan/plan.hpp"
 
 namespace tipgap {
@@ -17,8 +18,8 @@ namespace tipgap {
 // normal distribution truncated to the range). A work function below 1 eV or a tip apex below
 // 0.1 nm (smaller than an atom) is not a metal tip; common practice, no source. The upper ends are
 // the model's own limits.
-inline constexpr double uncertain_work_function_min_J = 1.0 * 1.602176634e-19;
-inline constexpr double uncertain_work_function_max_J = 20.0 * 1.602176634e-19;
+inline constexpr double uncertain_work_function_min_J = 1.0 * si::electron_volt;
+inline constexpr double uncertain_work_function_max_J = 20.0 * si::electron_volt;
 inline constexpr double uncertain_apex_radius_min_m = 0.1e-9;
 inline constexpr double uncertain_apex_radius_max_m = 1e-5;
 
@@ -77,9 +78,5 @@ uncertainty_summary plan_uncertainty(const config& c, double current_A, double b
 // gap_m: s (m), > 0; bias_V: sample bias (V).
 uncertainty_summary predict_uncertainty(const config& c, double gap_m, double bias_V,
                                         const uncertainty_options& options);
-
-// Quantile of sorted finite data, definition 7 of Hyndman & Fan (1996): linear interpolation
-// between order statistics at (n - 1) p. sorted: ascending, non-empty; p in [0, 1].
-double quantile_sorted(const std::vector<double>& sorted, double p);
 
 }  // namespace tipgap

@@ -19,6 +19,7 @@
 #include <vector>
 
 #include "tipgap/config/config.hpp"
+#include "tipgap/core/constants.hpp"
 #include "tipgap/io/curve_io.hpp"
 
 namespace tipgap {
@@ -28,8 +29,12 @@ enum class synth_sweeps {
     approach,          // one sweep, z decreasing
     approach_retract,  // approach then retract, with a direction column
 };
-const char* to_string(synth_sweeps s);
-bool from_string(std::string_view s, synth_sweeps& out);
+template <>
+struct enum_names<synth_sweeps> {
+    static constexpr enum_name<synth_sweeps> table[] = {{synth_sweeps::retract, "retract"},
+                                                        {synth_sweeps::approach, "approach"},
+                                                        {synth_sweeps::approach_retract, "approach_retract"}};
+};
 
 struct synth_options {
     double bias_V = 0.1;                    // sample bias (V), non-zero, |V| <= model bias limit
@@ -115,8 +120,10 @@ enum class grid_pattern {
     uniform,  // the config's sample everywhere
     disc,     // a disc of another sample work function on the uniform background
 };
-const char* to_string(grid_pattern p);
-bool from_string(std::string_view s, grid_pattern& out);
+template <>
+struct enum_names<grid_pattern> {
+    static constexpr enum_name<grid_pattern> table[] = {{grid_pattern::uniform, "uniform"}, {grid_pattern::disc, "disc"}};
+};
 
 struct synth_grid_options {
     std::size_t nx = 64, ny = 64;           // pixels, each in [1, 4096]
@@ -125,7 +132,7 @@ struct synth_grid_options {
     double disc_radius_m = std::numeric_limits<double>::quiet_NaN();  // NaN: a quarter of the shorter side
     double disc_centre_x_m = std::numeric_limits<double>::quiet_NaN(); // NaN: grid centre
     double disc_centre_y_m = std::numeric_limits<double>::quiet_NaN();
-    double disc_work_function_J = 4.3 * 1.602176634e-19;  // sample work function inside the disc (J)
+    double disc_work_function_J = 4.3 * si::electron_volt;  // sample work function inside the disc (J)
 
     void validate() const;
 };

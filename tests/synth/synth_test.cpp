@@ -1,6 +1,6 @@
-// Tests for the synthesiser (determinism, noise statistics, clipping, drift, contact, grids), the
-// model comparison fit (recovery of a known work function and gap offset), and ground-truth
-// recovery by `fit` on the shipped demo curves.
+// Tests for the synthesiser (determinism, noise statistics, clipping, drift, contact, grids).
+// (The model comparison fit is tested in tests/fit/model_fit_test.cpp, the shipped demo curves in
+// tests/demo/demo_scans_test.cpp.)
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -15,10 +15,11 @@
 
 #include "tipgap/core/constants.hpp"
 #include "tipgap/fit/fit.hpp"
-#include "tipgap/fit/model_fit.hpp"
+#include "support/synth_sweep.hpp"
 #include "tipgap/synth/synth.hpp"
 
 using namespace tipgap;
+using tipgap_test::as_sweep;
 namespace fs = std::filesystem;
 
 namespace {
@@ -40,15 +41,6 @@ fs::path scratch(const std::string& name) {
     return d;
 }
 
-curve_sweep as_sweep(const synth_curve& c, std::size_t first, std::size_t rows) {
-    curve_sweep s;
-    s.direction = c.samples[first].direction;
-    for (std::size_t k = first; k < first + rows; ++k) {
-        s.z_m.push_back(c.samples[k].z_m);
-        s.current_A.push_back(c.samples[k].current_A);
-    }
-    return s;
-}
 
 }  // namespace
 
@@ -248,82 +240,4 @@ TEST(synth, grid_rows_regions_and_determinism) {
     EXPECT_EQ(rows, 63u * 16u);
     EXPECT_TRUE(row17.starts_with("1,0,0.0000,")) << row17;
     fs::remove_all(dir);
-}
-
-// Model comparison on a noise-free curve made by the model itself, with a mean work function
-// (4.6 eV) and a gap offset (0.55 nm at z = 0) different from the fit's start (the default
-// config's 4.9 eV and a current-matched offset): the fit recovers both. The residuals are
-// limited by the model's own accuracy (rel_tol 1e-6 in J) and the cubic B-spline interpolation
-// over 33 gaps (~1e-6 in ln|I|); with the strong φ̄-s0 correlation (~-0.996) that leaves errors of
-// a few 1e-6 eV and 1e-6 nm (measured: 4.599999 eV, 0.550001 nm). Tolerances 0.1 meV and
-// 0.1 pm: 100x the measured error (room for other compilers and maths libraries), still 1000x
-// below the 0.2 eV differences a user compares.
-TEST(model_fit, recovers_work_function_and_gap_offset_from_noise_free_model_curve) {
-    config c = default_config();
-    config truth = with_mean_work_function(c, 4.6 * eV_);
-    synth_options o;
-    o.gap_min_m = 0.5 * nm_;
-    o.gap_max_m = 1.1 * nm_;
-    o.gap_at_z0_m = 0.55 * nm_;  // z starts at -0.05 nm
-    o.points = 61;
-    const synth_curve s = synthesise_curve(truth, o);
-    const curve_sweep sweep = as_sweep(s, 0, s.samples.size());
-    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{});
-    const model_fit_result m = fit_model_to_sweep(c, sweep, lin, o.bias_V);
-    std::printf("model fit: W %.6f eV (true 4.6), offset %.6f nm (true 0.55), a %.2e, %d iterations, %d evaluations\n",
-                m.mean_work_function_J / eV_, m.gap_offset_m / nm_, m.ln_prefactor, m.iterations, m.model_evaluations);
-    constexpr double kWorkFunction = 1e-4 * eV_;
-    constexpr double kOffset = 1e-13;
-    EXPECT_EQ(m.status, fit_status::converged);
-    EXPECT_NEAR(m.mean_work_function_J, 4.6 * eV_, kWorkFunction);
-    EXPECT_NEAR(m.gap_offset_m, 0.55 * nm_, kOffset);
-    EXPECT_NEAR(m.ln_prefactor, 0.0, 0.01);  // same area as the truth
-    // The difference tip - sample is held: 4.5 - 5.3 eV.
-    EXPECT_NEAR(m.tip_work_function_J - m.sample_work_function_J, -0.8 * eV_, 1e-12 * eV_);
-    // The image potential puts φ_ap well below the mean work function (0.3-0.7 eV here).
-    EXPECT_LT(m.data_apparent_barrier_J, m.mean_work_function_J - 0.2 * eV_);
-    EXPECT_NEAR(m.model_apparent_barrier_J, m.data_apparent_barrier_J, 1e-3 * eV_);
-    EXPECT_LT(m.model_evaluations, 10000);
-}
-
-TEST(model_fit, needs_a_bias) {
-    const config c = default_config();
-    synth_options o;
-    const synth_curve s = synthesise_curve(c, o);
-    const curve_sweep sweep = as_sweep(s, 0, s.samples.size());
-    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{});
-    try {
-        fit_model_to_sweep(c, sweep, lin, std::nan(""), {}, location{"x.csv", 0, 0, ""});
-        FAIL() << "no exception";
-    } catch (const error& e) {
-        EXPECT_EQ(std::string(e.what()),
-                  "x.csv: the model comparison needs the bias: add '# bias: 100 mV' (for example) to the curve file");
-    }
-}
-
-// Ground-truth recovery on the shipped demo curves: for every sweep, the synthesiser's expected κ
-// (noise-free, with the instrument's drift and baseline) lies inside the fit's 95 % interval
-// (fit's own t quantile and standard error). Eight sweeps at 95 %: all inside is expected most of
-// the time; these seeds are fixed, and demo_scans/make_demo_scans.sh regenerates the same files.
-TEST(demo_scans, fit_recovers_truth_within_stated_uncertainty) {
-    const fs::path dir = fs::path(TIPGAP_SOURCE_DIR) / "demo_scans";
-    std::size_t sweeps = 0;
-    for (const fs::directory_entry& e : fs::directory_iterator(dir)) {
-        if (e.path().extension() != ".csv") continue;
-        const measured_curve m = read_curve_csv(e.path().string());
-        const truth_record t = read_truth(truth_path_for(e.path().string()));
-        const std::vector<fit_result> fits = fit_curve(m, fit_options{});
-        ASSERT_EQ(fits.size(), t.sweeps.size()) << e.path();
-        for (std::size_t k = 0; k < fits.size(); ++k) {
-            ++sweeps;
-            const double truth = t.sweeps[k].decay_constant_expected_per_m;
-            EXPECT_EQ(fits[k].direction, t.sweeps[k].direction);
-            EXPECT_GE(truth, fits[k].decay_constant_ci_low_per_m) << e.path() << " sweep " << k;
-            EXPECT_LE(truth, fits[k].decay_constant_ci_high_per_m) << e.path() << " sweep " << k;
-            std::printf("%s %s: kappa %.4f +- %.4f, truth %.4f /nm\n", e.path().filename().c_str(),
-                        to_string(fits[k].direction), fits[k].decay_constant_per_m * 1e-9,
-                        fits[k].decay_constant_stderr_per_m * 1e-9, truth * 1e-9);
-        }
-    }
-    EXPECT_GE(sweeps, 8u);
 }

@@ -7,7 +7,6 @@
 #include <fstream>
 #include <string>
 
-#include "io/detail/csv_scan.hpp"
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/core/error.hpp"
 
@@ -176,26 +175,4 @@ TEST(curve_io, malformed_files_give_exact_messages) {
     EXPECT_EQ(message_of("# bias: 1 furlong\nz [nm],current [nA]\n"),
               "c.csv:1:9: bias: unknown unit 'furlong' in '1 furlong'; expected a voltage in V, mV, uV, kV");
     EXPECT_EQ(message_of("z [nm],z [pm],current [nA]\n"), "c.csv:1:8: column 'z' appears twice in the header");
-}
-
-TEST(csv_scan, cells_columns_and_numbers) {
-    detail::cell_cursor cells(" 1.5 ,\t-2e-3,+7\r");
-    std::string_view cell;
-    int column = 0;
-    ASSERT_TRUE(cells.next(cell, column));
-    EXPECT_EQ(cell, "1.5");
-    EXPECT_EQ(column, 2);
-    ASSERT_TRUE(cells.next(cell, column));
-    EXPECT_EQ(cell, "-2e-3");
-    EXPECT_EQ(column, 8);
-    ASSERT_TRUE(cells.next(cell, column));
-    EXPECT_EQ(cell, "+7");
-    EXPECT_FALSE(cells.next(cell, column));
-    double v = 0;
-    EXPECT_EQ(detail::parse_double("+7", v), detail::number_status::ok);
-    EXPECT_EQ(v, 7.0);
-    EXPECT_EQ(detail::parse_double("1.5x", v), detail::number_status::not_a_number);
-    EXPECT_EQ(detail::parse_double("NaN", v), detail::number_status::not_finite);
-    EXPECT_EQ(detail::parse_double("", v), detail::number_status::empty);
-    EXPECT_EQ(detail::count_cells("a,b,,c"), 4);
 }

@@ -13,12 +13,14 @@
 #include <string>
 #include <vector>
 
+#include "core/detail/parallel.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/model/current.hpp"
 #include "tipgap/plan/predict.hpp"
 #include "tipgap/core/units.hpp"
 
 using namespace tipgap;
+using tipgap::detail::parallel_for;
 
 namespace {
 

@@ -202,7 +202,9 @@ TEST(closed_forms, simmons_fixed_mean_barrier_first_order_in_bias) {
         const double second = first * (1.0 - (eV * V) * a / (4.0 * phi) * (a - 3.0) / (a - 2.0));
         const double J_over_V = simmons_intermediate(phi, s, eV * V) / V;
         EXPECT_NEAR(J_over_V, second, second * kLowBias) << s_nm << " nm";
-        if (s_nm == 1.0) EXPECT_GT(std::abs(J_over_V / first - 1.0), 1e-6);
+        if (s_nm == 1.0) {
+            EXPECT_GT(std::abs(J_over_V / first - 1.0), 1e-6);
+        }
     }
 }
 

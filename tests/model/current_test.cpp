@@ -22,22 +22,6 @@ model_options rectangular(double phi_eV, double ef_eV, double T) {
 }
 }  // namespace
 
-TEST(supply_function, zero_temperature_limit_and_smoothness) {
-    const double V = 0.1 * eV;
-    // T = 0: eV below both Fermi levels, -E between them, 0 above (exact, no division by zero).
-    EXPECT_EQ(supply_function(-1.0 * eV, V, 0.0), V);
-    EXPECT_DOUBLE_EQ(supply_function(-0.04 * eV, V, 0.0), 0.04 * eV);
-    EXPECT_EQ(supply_function(0.2 * eV, V, 0.0), 0.0);
-    // Small T tends to the T = 0 value away from the edges, and is positive above them.
-    const double kT = si::boltzmann_k * 4.2;
-    EXPECT_NEAR(supply_function(-0.05 * eV, V, kT) / (0.05 * eV), 1.0, 1e-12);
-    EXPECT_GT(supply_function(0.001 * eV, V, kT), 0.0);
-    // Negative bias: the supply changes sign (electrons flow from sample to tip).
-    EXPECT_LT(supply_function(-1.0 * eV, -V, kT), 0.0);
-    // Exactly at the tip edge at finite T: kT [ln 2 - ln(1 + e^(-eV/kT))] (direct evaluation).
-    EXPECT_NEAR(supply_function(0.0, V, kT), kT * (std::log(2.0) - std::log1p(std::exp(-V / kT))), 1e-30);
-}
-
 // Rectangular barrier, T = 0, zero-bias limit. With D(E) = exp(-b sqrt(phi - E)), b = 2 s sqrt(2m)/hbar,
 // and N(E) -> eV for E < 0: J/V = (4 pi m e^2/h^3) ∫_{-E_F}^{0} exp(-b sqrt(phi - E)) dE. With
 // w = sqrt(phi - E), dE = -2w dw, the integral is ∫_{sqrt phi}^{sqrt U} 2 w e^{-b w} dw

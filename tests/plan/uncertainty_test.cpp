@@ -5,11 +5,13 @@
 #include <boost/math/special_functions/erf.hpp>
 #include <cmath>
 
+#include "core/detail/quantile.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/plan/uncertainty.hpp"
 
 using namespace tipgap;
+using tipgap::detail::quantile_sorted;
 
 namespace {
 constexpr double eV = si::electron_volt;

@@ -53,8 +53,9 @@ std::string read_all(const std::string& path) {
 xy_panel line_panel() {
     xy_panel p;
     p.title = "Current against gap";
-    p.x_axis = {"gap [nm]"};
-    p.y_axis = {"current [A]", axis_scale::log10};
+    p.x_axis.label = "gap [nm]";
+    p.y_axis.label = "current [A]";
+    p.y_axis.scale = axis_scale::log10;
     series model{{}, {}, "model", draw_style::line};
     series points{{}, {}, "sample #3", draw_style::markers};
     band b{{}, {}, {}, "95 % band", 0};
@@ -83,8 +84,8 @@ xy_panel line_panel() {
 colour_map_panel map_panel() {
     colour_map_panel m;
     m.title = "Barrier map";
-    m.x_axis = {"x [nm]"};
-    m.y_axis = {"y [nm]"};
+    m.x_axis.label = "x [nm]";
+    m.y_axis.label = "y [nm]";
     m.x = {0.0, 1.0, 2.0, 3.0};
     m.y = {0.0, 1.0, 2.0};
     m.z = {4.1, 4.2, 4.3, 4.4, 4.0, std::nan(""), 4.5, 4.6, 3.9, 4.0, std::nan(""), 4.7};
@@ -95,7 +96,7 @@ colour_map_panel map_panel() {
 histogram_panel histogram() {
     histogram_panel h;
     h.title = "Barrier heights";
-    h.x_axis = {"apparent barrier [eV]"};
+    h.x_axis.label = "apparent barrier [eV]";
     for (int i = 0; i < 200; ++i) h.values.push_back(4.0 + 0.5 * std::sin(0.37 * i));
     h.markers = {{orientation::vertical, 4.0, "mean"}, {orientation::vertical, 4.05, "median"}};
     return h;

@@ -43,7 +43,9 @@ TEST(image_potential, chebyshev_fit_matches_boost_digamma) {
         // Derivative against a central difference of the reference (step 1e-6: error ~1e-9 relative).
         double h = 1e-6;
         double d = (detail::image_g_reference(a + h) - detail::image_g_reference(a - h)) / (2 * h);
-        if (a > 0.01 && a < 0.99) EXPECT_NEAR(detail::image_g_prime(a), d, 1e-6 * std::max(1.0, std::abs(d)));
+        if (a > 0.01 && a < 0.99) {
+            EXPECT_NEAR(detail::image_g_prime(a), d, 1e-6 * std::max(1.0, std::abs(d)));
+        }
     }
 }
 

@@ -1,5 +1,5 @@
-// Tests for the I(z) fitter: NIST StRD certified regression, ground-truth recovery and interval
-// coverage on seeded synthetic curves, noise floor, saturation, contact and sweep handling.
+// Tests for the I(z) fitter: ground-truth recovery and interval coverage on seeded synthetic
+// curves, noise floor, saturation, contact and sweep handling, and curves that once crashed it.
 #include <gtest/gtest.h>
 
 #include "synth/detail/normal_source.hpp"
@@ -7,17 +7,15 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdint>
-#include <fstream>
 #include <limits>
 #include <random>
-#include <sstream>
 #include <string>
 #include <vector>
 
 #include <fmt/format.h>
 
-#include "io/detail/csv_scan.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/fit/fit.hpp"
 
@@ -59,61 +57,6 @@ const double no_bias = std::numeric_limits<double>::quiet_NaN();
 
 }  // namespace
 
-// NIST Statistical Reference Datasets, linear least squares, "Norris" (itl.nist.gov/div898/strd,
-// certified values computed in 500-digit arithmetic and quoted to 15 significant digits).
-TEST(fit_line, nist_strd_norris_certified_values) {
-    // Certified values as printed in the NIST StRD Norris data page (repeated in the file header).
-    constexpr double b0 = -0.262323073774029, b0_sd = 0.232818234301152;
-    constexpr double b1 = 1.00211681802045, b1_sd = 0.429796848199937e-03;
-    constexpr double residual_sd = 0.884796396144373, r2 = 0.999993745883712;
-    // The brief's target: 1e-9 relative. The data carry 4-5 digits and the problem is mildly
-    // conditioned (x up to 1000), so an SVD solve in double reaches ~1e-12; 1e-9 leaves margin.
-    constexpr double kNist = 1e-9;
-
-    std::ifstream in(std::string(TIPGAP_SHARED_REFERENCE) + "/nist-strd-norris.csv");
-    ASSERT_TRUE(in) << "missing " << TIPGAP_SHARED_REFERENCE << "/nist-strd-norris.csv";
-    std::stringstream buf;
-    buf << in.rdbuf();
-    const std::string text = buf.str();
-    std::vector<double> x, y;
-    detail::line_cursor lines(text);
-    std::string_view line;
-    while (lines.next(line)) {
-        if (detail::is_blank(line) || detail::trim_cell(line).front() == '#' || line.starts_with("x,")) continue;
-        detail::cell_cursor cells(line);
-        std::string_view cell;
-        int column = 0;
-        double v[2] = {0, 0};
-        for (int c = 0; c < 2 && cells.next(cell, column); ++c) {
-            ASSERT_EQ(detail::parse_double(cell, v[c]), detail::number_status::ok) << line;
-        }
-        x.push_back(v[0]);
-        y.push_back(v[1]);
-    }
-    ASSERT_EQ(x.size(), 36u);
-    const line_fit f = fit_line(x, y);
-    std::printf("Norris relative errors: B0 %.1e, B1 %.1e, sd(B0) %.1e, sd(B1) %.1e, s %.1e, R2 %.1e\n",
-                std::abs(f.intercept / b0 - 1), std::abs(f.slope / b1 - 1), std::abs(f.intercept_stderr / b0_sd - 1),
-                std::abs(f.slope_stderr / b1_sd - 1), std::abs(f.residual_std / residual_sd - 1),
-                std::abs(f.r_squared / r2 - 1));
-    EXPECT_NEAR(f.intercept, b0, std::abs(b0) * kNist);
-    EXPECT_NEAR(f.slope, b1, std::abs(b1) * kNist);
-    EXPECT_NEAR(f.intercept_stderr, b0_sd, b0_sd * kNist);
-    EXPECT_NEAR(f.slope_stderr, b1_sd, b1_sd * kNist);
-    EXPECT_NEAR(f.residual_std, residual_sd, residual_sd * kNist);
-    EXPECT_NEAR(f.r_squared, r2, r2 * kNist);
-}
-
-TEST(fit_line, weights_equal_to_repeated_points) {
-    // A weight of 2 is the same as the point appearing twice (definition of weighted least squares).
-    const std::vector<double> x{0, 1, 2, 3, 4}, y{1.0, 2.9, 5.2, 7.1, 8.8}, w{1, 2, 1, 1, 1};
-    const std::vector<double> xr{0, 1, 1, 2, 3, 4}, yr{1.0, 2.9, 2.9, 5.2, 7.1, 8.8};
-    const line_fit a = fit_line(x, y, w), b = fit_line(xr, yr);
-    constexpr double kRoundoff = 1e-13;  // same problem, different rounding order
-    EXPECT_NEAR(a.slope, b.slope, kRoundoff);
-    EXPECT_NEAR(a.intercept, b.intercept, kRoundoff);
-    EXPECT_NEAR(a.r_squared, b.r_squared, kRoundoff);
-}
 
 TEST(fit, apparent_barrier_matches_rule_of_thumb) {
     // κ = 0.5123 Å⁻¹ sqrt(φ/eV) (common practice, no source), quoted to 4 digits: φ ∝ κ², so
@@ -418,4 +361,46 @@ TEST(fit, too_few_points_above_the_floor_is_an_input_error) {
     fit_options bad;
     bad.calibration_uncertainty = 0.7;
     EXPECT_THROW(bad.validate(), error);
+}
+
+// tests/bad_inputs/csv/fuzz_wild_outlier.csv (found by fuzz_curve_csv): a z of 7.07 nm among
+// 0.0-0.14 nm made the reweighting pass compute weights of exp(+large)^2 = inf, and the SVD of a
+// matrix holding inf read out of bounds (SIGSEGV). Now the fit either works or says why.
+TEST(error_format, wild_outlier_curve_is_refused_not_crashed) {
+    const std::string text =
+        "z [nm],current [pA]\n0.00,0.500000\n0.,.910004365\n0.03,0.335160\n0.03,8.274406\n0.04,0.224664\n"
+        "0.05,0.183940\n0.06,0.100595\n7.07,0.123298\n0.18,0.100948\n0.09,0.082649\n0.10,0.067668\n"
+        "0.11,0.055401\n0.12,0.045359\n0.13,0.037137\n0.1419,0.011185\n";
+    const measured_curve c = parse_curve_csv(text, "w.csv");
+    try {
+        fit_curve(c, fit_options{});
+        FAIL() << "no throw";
+    } catch (const error& e) {
+        EXPECT_EQ(e.kind(), error_kind::input);
+        // The sweep after the outlier (rows 9-15) keeps no point above the estimated noise floor.
+        EXPECT_EQ(std::string(e.what()).rfind("w.csv: unknown sweep from row 9: only 0 of 7 points lie above the noise "
+                                              "floor of ",
+                                              0),
+                  0u)
+            << e.what();
+    }
+}
+
+// tests/fuzz/seeds/curve_csv/regression_singular_reweight.csv (found by fuzz_curve_csv): the
+// reweighting pass left one z with all the weight, the line fit was singular and the report said
+// kappa = -0 +- NaN. Now the last well-posed fit is kept and every number is finite.
+TEST(error_format, singular_reweighting_keeps_a_finite_fit) {
+    const std::string text =
+        "z [nm],current [pA]\n0.00,0.500000\n0.,.910004365\n0.03,0.335160\n0.03,8.274406\n0.04,0.224664\n"
+        "0.05,0.183940\n0.06,0.108595\n7.07,0.123298\n0.18,0.100948\n0.09,0.082649\n0.20,0.067668\n"
+        "0.11,0.055401\n0.12,0.045359\n0.13,0.037137\n0.1419,0.0100\n0.,.910004365\n0.03,0.335160\n"
+        "0.03,8.274406\n0.04,01105\n";
+    const std::vector<fit_result> results = fit_curve(parse_curve_csv(text, "s.csv"), fit_options{});
+    ASSERT_EQ(results.size(), 2u);
+    for (const fit_result& r : results) {
+        EXPECT_TRUE(std::isfinite(r.decay_constant_per_m));
+        EXPECT_TRUE(std::isfinite(r.decay_constant_stderr_per_m));
+        EXPECT_GT(r.decay_constant_stderr_per_m, 0.0);
+        EXPECT_TRUE(std::isfinite(r.apparent_barrier_ci_high_J));
+    }
 }
