@@ -12,9 +12,22 @@
 #include <variant>
 #include <vector>
 
-namespace tipgap::cli {
+#include "tipgap/core/enum_names.hpp"
 
+namespace tipgap::cli {
 enum class output_format { table, csv, json };
+}  // namespace tipgap::cli
+
+namespace tipgap {
+// "table", "csv", "json": the names of the output formats on the command line.
+template <>
+struct enum_names<cli::output_format> {
+    static constexpr enum_name<cli::output_format> table[] = {
+        {cli::output_format::table, "table"}, {cli::output_format::csv, "csv"}, {cli::output_format::json, "json"}};
+};
+}  // namespace tipgap
+
+namespace tipgap::cli {
 
 // std::uint64_t covers std::size_t on the LP64 systems tipgap builds on.
 static_assert(std::is_same_v<std::size_t, std::uint64_t>);

@@ -26,16 +26,14 @@ struct overloaded : F... {
     using F::operator()...;
 };
 
-// "table", "csv", "json": the names of the output formats on the command line.
+// The output format by its name (enum_names<output_format>, cli/command.hpp).
 CLI::Option* add_format(CLI::App* cmd, const flag& f, output_format& format) {
     return cmd->add_option_function<std::string>(
         f.names,
         [&format, name = f.names](const std::string& s) {
-            constexpr std::pair<std::string_view, output_format> names[] = {
-                {"table", output_format::table}, {"csv", output_format::csv}, {"json", output_format::json}};
-            for (const auto& [name, value] : names)
-                if (s == name) return void(format = value);
-            throw CLI::ValidationError(name, quote_input(s) + " is not an output format; expected table, csv or json");
+            if (!from_string(s, format))
+                throw CLI::ValidationError(name, quote_input(s) + " is not an output format; expected " +
+                                                     accepted_names<output_format>());
         },
         f.help);
 }
