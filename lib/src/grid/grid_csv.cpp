@@ -262,8 +262,9 @@ private:
             const role r = cols_.roles[c];
             if (r == role::z || r == role::current) {
                 double v;
-                const char* q = scan_number(p, end, v);
-                // A decimal comma (rare) stops the fast scan at the comma: the slow path reads it.
+                const char* q = scan_number(p, end, v, d.decimal_comma ? ',' : '.');
+                // A number the fast scan cannot take whole (an exponent with a decimal comma, a
+                // second comma): the slow path reads the cell or finds it bad.
                 if (!q || (d.decimal_comma && q < end && *q == ',')) q = slow_number(p, end, v);
                 if (!q) cell_error(line_start, cell_start, end, line, c);
                 p = q;

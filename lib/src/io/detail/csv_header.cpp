@@ -63,7 +63,8 @@ bool same_column_spec(std::string_view a, std::string_view b) {
     return iequals(na, nb);
 }
 
-void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta) {
+void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta,
+                         bool decimal_comma) {
     std::string_view body = trim_cell(line.substr(line.find('#') + 1));
     std::size_t colon = body.find(':');
     if (colon == std::string_view::npos) return;  // a plain comment
@@ -74,16 +75,22 @@ void parse_metadata_line(std::string_view line, int line_number, const std::stri
     // Column of the value, for messages about a bad value of a known key.
     int value_column = static_cast<int>(value.data() - line.data()) + 1;
     location where{file, line_number, value_column, std::string(key)};
+    // A file written with decimal commas writes its metadata so too: "0,1 V".
+    std::string number(value);
+    if (decimal_comma && number.find('.') == std::string::npos && number.find(',') == number.rfind(',') &&
+        number.find(',') != std::string::npos) {
+        number[number.find(',')] = '.';
+    }
     if (key == "bias") {
-        meta.bias_V = parse_quantity(value, dimension::voltage, where);
+        meta.bias_V = parse_quantity(number, dimension::voltage, where);
     } else if (key == "temperature") {
-        meta.temperature_K = parse_quantity(value, dimension::temperature, where);
+        meta.temperature_K = parse_quantity(number, dimension::temperature, where);
     } else if (key == "setpoint_current") {
-        meta.setpoint_current_A = parse_quantity(value, dimension::current, where);
+        meta.setpoint_current_A = parse_quantity(number, dimension::current, where);
     } else if (key == "x") {
-        meta.x_m = parse_quantity(value, dimension::length, where);
+        meta.x_m = parse_quantity(number, dimension::length, where);
     } else if (key == "y") {
-        meta.y_m = parse_quantity(value, dimension::length, where);
+        meta.y_m = parse_quantity(number, dimension::length, where);
     } else if (key == "sample") {
         meta.sample = std::string(value);
     } else if (key == "tip") {

@@ -40,8 +40,10 @@ bool same_column_spec(std::string_view a, std::string_view b);
 
 // Reads one '#' line into `meta` when it has the form "# key: value" (other comments are ignored).
 // Known keys (bias, temperature, setpoint_current, x, y, sample, tip) are parsed; a bad value
-// throws naming file:line:column of the value.
-void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta);
+// throws naming file:line:column of the value. decimal_comma: a number with one comma and no
+// point reads the comma as the decimal mark ("0,1 V").
+void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta,
+                         bool decimal_comma = false);
 
 // Sets the bias and temperature of `o` in `meta` when given; adds a note to `notes` for each
 // value the file states differently.

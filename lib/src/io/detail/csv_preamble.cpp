@@ -79,6 +79,8 @@ csv_preamble read_preamble(std::string_view text, bool whole_file, const std::st
     line_cursor lines(text.substr(start));
     std::string_view line;
     std::size_t line_start = start;
+    // The '#' lines, read once the dialect is known (a decimal comma applies to them too).
+    std::vector<std::pair<std::string_view, int>> comments;
     while (lines.next(line)) {
         if (!whole_file && !lines.ended_by_newline()) {
             throw_input(location{file, lines.line_number(), 0, ""},
@@ -87,12 +89,13 @@ csv_preamble read_preamble(std::string_view text, bool whole_file, const std::st
         }
         const std::string_view t = trim_cell(line);
         if (t.empty() || t.front() == '#') {
-            if (!t.empty()) parse_metadata_line(line, lines.line_number(), file, out.metadata);
+            if (!t.empty()) comments.emplace_back(line, lines.line_number());
             line_start = start + lines.offset();
             continue;
         }
         const bool headerless = headerless_allowed(format, choice) && starts_with_number(line, choice);
         out.dialect = choice.dialect ? *choice.dialect : detect_dialect(line, headerless);
+        for (const auto& [c, n] : comments) parse_metadata_line(c, n, file, out.metadata, out.dialect.decimal_comma);
         if (headerless) {
             out.header = headerless_header(line, lines.line_number(), file, format, choice, out.dialect);
             out.data_offset = line_start;
@@ -102,6 +105,7 @@ csv_preamble read_preamble(std::string_view text, bool whole_file, const std::st
         }
         return out;
     }
+    for (const auto& [c, n] : comments) parse_metadata_line(c, n, file, out.metadata);
     throw_input(location{file, 0, 0, ""},
                 fmt::format("no header row: the file holds only '#' lines; expected a header such as {} followed by "
                             "data rows",
