@@ -43,7 +43,12 @@ void check_columns(const std::vector<std::string>& columns, std::size_t roles) {
 
 void check_unit(const std::string& unit, dimension d, const char* key) {
     if (unit.empty()) return;
-    (void)detail::unit_factor(unit, d, unit, location{"", 0, 0, key});
+    try {
+        (void)parse_quantity(fmt::format("1 {}", unit), d);
+    } catch (const error&) {
+        throw_input(location{"", 0, 0, key}, fmt::format("unknown unit {}; expected {} in {}", quote_input(unit, 20),
+                                                         dimension_phrase(d), accepted_units(d)));
+    }
 }
 
 }  // namespace
