@@ -31,6 +31,7 @@ constexpr flag_name flag_names[] = {
     {"", "z_unit", "--z-unit"},
     {"", "current_unit", "--current-unit"},
     {"", "xy_unit", "--xy-unit"},
+    {"", "flip_z", "--flip-z"},
     {"", "bias_V", "--bias"},
     {"", "temperature_K", "--temperature"},
     // map_options
