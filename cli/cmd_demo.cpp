@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "command.hpp"
+#include "flags.hpp"
 #include "output.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -64,6 +65,20 @@ void write_report(const demo_report& r, const std::string& out) {
     out_dir.commit();
 }
 
+// The options a file in another layout was read with, as `tipgap fit` takes them.
+void print_read_options(const demo_report& r) {
+    const measured_curve* last = nullptr;
+    for (const demo_curve& d : r.curves) {
+        if (d.curve.get() == last) continue;
+        last = d.curve.get();
+        std::string flags;
+        for (const auto& [key, value] : settings(d.read)) flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
+        if (!flags.empty())
+            fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", fs::path(d.curve->file).filename().string(),
+                       fs::path(d.curve->file).filename().string(), flags);
+    }
+}
+
 void print_summary(const demo_report& r, const demo_options& o) {
     constexpr double eV = si::electron_volt;
     const prediction& mid = r.sweep[r.sweep.size() / 2];
@@ -88,6 +103,7 @@ void print_summary(const demo_report& r, const demo_options& o) {
                "the image potential lowers the apparent barrier.\n",
                t.kappa_within, t.compared);
     for (const std::string& f : r.files_without_truth) fmt::print("note: {} has no truth file\n", f);
+    print_read_options(r);
 }
 
 void run(const demo_args& a) {

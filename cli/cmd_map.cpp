@@ -13,6 +13,7 @@
 #include "fit_flags.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "read_flags.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/figures/map_figures.hpp"
 #include "tipgap/grid/map.hpp"
@@ -30,6 +31,7 @@ struct map_args {
     int threads = 0;
     bool quiet = false;
     fit_flags flags;
+    read_flags read;
     double min_decades = 1.0;
     double max_relative_error = 0.1;
 };
@@ -97,6 +99,7 @@ void run(const map_args& a) {
     o.min_current_decades = a.min_decades;
     o.max_relative_stderr = a.max_relative_error;
     o.read.threads = a.threads;
+    o.read.reader = to_reader_options(a.read, "map", 4);
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
     auto bar = std::make_shared<progress_bar>();
     if (!a.quiet && ::isatty(STDERR_FILENO)) o.read.progress = [bar](std::uint64_t d, std::uint64_t t) { (*bar)(d, t); };
@@ -112,6 +115,7 @@ void run(const map_args& a) {
     }
     bar->finish();
     print_warnings(m.grid.warnings, m.grid.path);
+    print_notes(m.grid.notes, m.grid.path);
     const auto t1 = std::chrono::steady_clock::now();
     write_maps(m, dir);
     const auto t2 = std::chrono::steady_clock::now();
@@ -138,6 +142,7 @@ command map_command() {
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
     };
+    for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);
     cmd.flags.push_back({"--min-decades", "Quality 'poor_fit' when the used points span fewer decades of current (default 1)",
                          &a->min_decades, "DECADES"});

@@ -25,6 +25,15 @@ constexpr flag_name flag_names[] = {
     {"", "window_points", "--window"},
     {"", "window_m", "--window"},
     {"", "contact_distance_m", "--contact-distance"},
+    // reader_options (fit and map)
+    {"", "delimiter", "--delimiter"},
+    {"", "columns", "--columns"},
+    {"", "z_unit", "--z-unit"},
+    {"", "current_unit", "--current-unit"},
+    {"", "xy_unit", "--xy-unit"},
+    {"", "flip_z", "--flip-z"},
+    {"", "bias_V", "--bias"},
+    {"", "temperature_K", "--temperature"},
     // map_options
     {"map", "min_current_decades", "--min-decades"},
     {"map", "max_relative_stderr", "--max-relative-error"},

@@ -10,6 +10,25 @@
 
 namespace tipgap {
 
+namespace {
+
+// The reader options of a demo curve: its <stem>.read.yaml, or the defaults.
+reader_options reader_options_for(const std::string& curve_file) {
+    const std::filesystem::path p(curve_file);
+    const std::string path = (p.parent_path() / (p.stem().string() + ".read.yaml")).string();
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) return {};
+    reader_options o = load_reader_options(path);
+    try {
+        o.validate(2);
+    } catch (const error& e) {
+        throw_input(location{path, 0, 0, e.where().key}, e.detail());
+    }
+    return o;
+}
+
+}  // namespace
+
 demo_report run_demo(const demo_options& o) {
     namespace fs = std::filesystem;
     demo_report rep;
@@ -31,14 +50,16 @@ demo_report run_demo(const demo_options& o) {
         throw_input(location{o.scans_dir, 0, 0, ""}, "the demo scans directory does not exist (use --scans DIR)");
     std::vector<std::string> files;
     for (const fs::directory_entry& e : fs::directory_iterator(o.scans_dir)) {
-        if (e.is_regular_file() && e.path().extension() == ".csv") files.push_back(e.path().string());
+        const std::string ext = e.path().extension().string();
+        if (e.is_regular_file() && (ext == ".csv" || ext == ".tsv" || ext == ".txt")) files.push_back(e.path().string());
     }
     std::sort(files.begin(), files.end());
-    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no *.csv curve files in the demo scans directory");
+    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no curve files (*.csv, *.tsv, *.txt) in the demo scans directory");
 
     const fit_options fo;  // the defaults a user gets from `tipgap fit FILE`
     for (const std::string& f : files) {
-        auto curve = std::make_shared<const measured_curve>(read_curve_csv(f));
+        const reader_options read = reader_options_for(f);
+        auto curve = std::make_shared<const measured_curve>(read_curve_csv(f, read));
         std::optional<truth_record> truth;
         const std::string tp = truth_path_for(f);
         if (fs::exists(tp)) truth = read_truth(tp);
@@ -47,6 +68,7 @@ demo_report run_demo(const demo_options& o) {
         for (std::size_t k = 0; k < fits.size(); ++k) {
             demo_curve d;
             d.curve = curve;
+            d.read = read;
             d.sweep_index = k;
             d.fit = std::move(fits[k]);
             d.truth = truth;

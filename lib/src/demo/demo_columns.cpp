@@ -25,6 +25,13 @@ record truth_record_of(const demo_curve& d) {
     return t;
 }
 
+// How the file was read: the reader options that differ from the defaults (true for flip_z).
+record read_record_of(const demo_curve& d) {
+    record r;
+    for (const auto& [k, v] : settings(d.read)) r.set(k, v.empty() ? std::string("true") : v);
+    return r;
+}
+
 record model_record_of(const demo_curve& d) {
     const model_fit_result& m = *d.model;
     record r;
@@ -63,6 +70,7 @@ const std::vector<column<demo_curve>>& demo_curve_columns() {
         {"contact", "", [](const d& x) { return to_string(x.fit.contact.kind); }, {}, {}, in_json},
         {"saturation_detected", "", [](const d& x) { return x.fit.saturation_detected; }, {}, {}, in_json},
         {"warnings", "", [](const d& x) { return x.fit.warnings; }, {}, {}, in_json},
+        {"read_options", "", [](const d& x) { return read_record_of(x); }, {}, {}, in_json},
         {"truth", "", [no](const d& x) { return x.sweep_truth ? cell(truth_record_of(x)) : no(); }, {}, {}, in_json},
         {"truth_decay_constant_per_nm", "truth kappa",
          [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->decay_constant_expected_per_m) : no(); }, to_per_nm, fixed(3),

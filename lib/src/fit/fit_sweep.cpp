@@ -304,6 +304,14 @@ std::vector<fit_result> fit_curve(const measured_curve& curve, const fit_options
         location where{curve.file, 0, 0, ""};
         if (curve.sweeps.size() > 1) where.key = fmt::format("{} sweep from row {}", to_string(s.direction), s.first_row + 1);
         out.push_back(fit_sweep(s, bias, options, where));
+        // A decay constant <= 0 is no result to report. The readers refuse curves whose current
+        // clearly rises with z (io/orientation.hpp); this catches the rest (noise, a sweep too short).
+        if (!(out.back().decay_constant_per_m > 0.0)) {
+            throw_input(where, fmt::format("|I| does not fall with z (fitted decay constant {:.3g} /nm): no barrier height "
+                                           "can be given; z must grow as the tip retracts (if it grows as the tip "
+                                           "approaches, read the file with --flip-z)",
+                                           out.back().decay_constant_per_m * 1e-9));
+        }
     }
     return out;
 }

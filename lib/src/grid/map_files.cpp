@@ -154,6 +154,9 @@ record map_summary(const barrier_map& m, const map_options& o, const map_run& ru
     for (const auto& [k, v] : m.grid.metadata.entries) meta.set(k, v);
     j.set("metadata", meta);
     j.set("fit", to_record(map_fit_columns(), o));
+    record reader;  // how the grid was read: the reader options that differ from the defaults
+    for (const auto& [k, v] : settings(o.read.reader)) reader.set(k, v.empty() ? std::string("true") : v);
+    j.set("reader", reader);
     j.set("apparent_barrier_eV", to_record(map_statistics_columns(to_eV), m.barrier));
     j.set("decay_constant_per_nm", to_record(map_statistics_columns(times(1e-9)), summarize(m.decay_constant_per_m)));
     j.set("stderr_apparent_barrier_eV", to_record(map_statistics_columns(to_eV), summarize(m.apparent_barrier_stderr_J)));
@@ -165,6 +168,7 @@ record map_summary(const barrier_map& m, const map_options& o, const map_run& ru
     j.set("quality_codes", codes);
     j.set("quality_counts", counts);
     j.set("warnings", m.grid.warnings);
+    j.set("notes", m.grid.notes);
     // Run-dependent entries last, so that outputs of two runs differ only here.
     j.set("threads", run.threads);
     j.set("timings", timings(m, run));

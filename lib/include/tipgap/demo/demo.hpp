@@ -9,6 +9,7 @@
 
 #include "tipgap/config/config.hpp"
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/io/reader_options.hpp"
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/fit/model_fit.hpp"
 #include "tipgap/plan/plan.hpp"
@@ -18,7 +19,10 @@
 namespace tipgap {
 
 struct demo_options {
-    std::string scans_dir;          // directory of *.csv curves (each with <stem>.truth.yaml, optional)
+    // Directory of curves (*.csv, *.tsv, *.txt), each with an optional <stem>.truth.yaml and, for a
+    // file in another layout, <stem>.read.yaml: the reader options it is read with
+    // (load_reader_options).
+    std::string scans_dir;
     double bias_V = 0.1;            // bias of the prediction sweep (V)
     double gap_min_m = 0.3e-9;      // prediction sweep (m), 0 < min < max
     double gap_max_m = 1.5e-9;
@@ -29,6 +33,7 @@ struct demo_options {
 
 struct demo_curve {
     std::shared_ptr<const measured_curve> curve;
+    reader_options read;                     // how the file was read (from <stem>.read.yaml)
     std::size_t sweep_index = 0;
     fit_result fit;
     std::optional<model_fit_result> model;
@@ -53,7 +58,7 @@ struct demo_report {
 };
 
 // Throws tipgap::error (input) when the directory is missing or holds no curve files; a bad curve
-// file throws with its file:line:column.
+// file or reader options file throws with its file:line:column.
 demo_report run_demo(const demo_options& options);
 
 }  // namespace tipgap
