@@ -35,6 +35,7 @@ nlohmann::json point_json(const prediction& p) {
             {"conductance_S", p.conductance_S},
             {"conductance_G0", p.conductance_G0},
             {"differential_conductance_density_S_per_m2", q.differential_conductance_density_S_per_m2},
+            {"dlnI_dV_per_V", q.dlnI_dV_per_V},
             {"decay_constant_per_nm", kappa_nm},
             {"nm_per_decade", kappa_nm > 0 ? std::log(10.0) / (2.0 * kappa_nm) : 0.0},
             {"apparent_barrier_eV", q.apparent_barrier_J / eV},

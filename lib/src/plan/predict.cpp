@@ -89,6 +89,12 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
             p.conductance_S = total_current(c.model, c.geometry, s, dV) / dV;
         }
         p.conductance_G0 = p.conductance_S / si::conductance_quantum;
+        if (!fixed_area && V != 0.0 && p.current_A != 0.0) {
+            // The paraboloid sums J over local gaps, so d ln|I|/dV differs from the planar value.
+            const double dV = bias_step(c.model, V);
+            p.q.dlnI_dV_per_V = (total_current(c.model, c.geometry, s, V + dV) -
+                                 total_current(c.model, c.geometry, s, V - dV)) / (2.0 * dV * p.current_A);
+        }
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
     });
     return out;
