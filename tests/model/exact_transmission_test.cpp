@@ -14,6 +14,7 @@
 #include "model/detail/magnus_step.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
 #include "tipgap/model/exact_transmission.hpp"
 #include "tipgap/model/transmission.hpp"
 
@@ -183,7 +184,8 @@ TEST(exact_transmission, magnus_step_is_fourth_order) {
             const double c = std::numbers::sqrt3 / 12.0 * h * h * k2 * (u1 - u2);
             detail::magnus_step(M, h, c, k2 * (0.5 * (u1 + u2) - E) * h);
         }
-        return std::abs(M.m11 / exact.m11 - 1.0) + std::abs(M.m21 / exact.m21 - 1.0);
+        const double scale = std::exp(M.log_scale);
+        return std::abs(scale * M.m11 / exact.m11 - 1.0) + std::abs(scale * M.m21 / exact.m21 - 1.0);
     };
     const double e8 = propagate(8), e16 = propagate(16), e32 = propagate(32);
     RecordProperty("error_ratios", fmt::format("{:.2f} {:.2f}", e8 / e16, e16 / e32));
@@ -227,6 +229,30 @@ TEST(exact_transmission, matches_scipy_solution_with_image_and_surface_model) {
     EXPECT_GE(rows, 10);
     RecordProperty("worst_default", fmt::format("{:.2e}", worst_default));
     RecordProperty("worst_tight", fmt::format("{:.2e}", worst_tight));
+}
+
+// Regression guard: a long evanescent step (mu = kappa h ~ 1500, as the level-0 mesh of a 100 nm gap
+// at high bias has in its middle) once overflowed exp(mu) to inf and made J NaN. The step now keeps
+// exp(mu) in the log scale: ln M11 = ln cosh(mu) = mu - ln 2 (+ e^-2mu) exactly.
+TEST(exact_transmission, long_evanescent_step_does_not_overflow) {
+    detail::transfer_matrix M;
+    const double h = 100e-9, v = k2 * 9.0 * J_per_eV, mu = std::sqrt(v) * h;
+    detail::magnus_step(M, h, 0.0, v * h);
+    ASSERT_TRUE(std::isfinite(M.m11) && std::isfinite(M.m21));
+    EXPECT_NEAR(std::log(M.m11) + M.log_scale, mu - std::log(2.0), 1e-12 * mu);
+    EXPECT_NEAR(std::log(M.m21 / std::sqrt(v)) + M.log_scale, mu - std::log(2.0), 1e-12 * mu);
+}
+
+TEST(exact_transmission, rejects_bad_tolerance_and_empty_range) {
+    const auto o = default_config().model;
+    EXPECT_THROW(exact_transmission(o, 1e-9, 0.5, 0.0), tipgap::error);
+    EXPECT_THROW(exact_transmission(o, 1e-9, 0.5, -1.0 * J_per_eV, -2.0 * J_per_eV, 1e-6), tipgap::error);
+    try {
+        exact_transmission(o, 1e-9, 0.5, 1.0);
+        FAIL() << "no throw";
+    } catch (const tipgap::error& e) {
+        EXPECT_STREQ(e.what(), "tolerance: 1 is out of range; expected a relative tolerance in [1e-13, 1e-2]");
+    }
 }
 
 TEST(exact_transmission, error_estimate_respects_tolerance_and_is_zero_below_band_bottom) {

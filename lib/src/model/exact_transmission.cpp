@@ -4,11 +4,13 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <fmt/format.h>
 #include <limits>
 #include <numbers>
 
 #include "model/detail/magnus_step.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
 
 namespace tipgap {
 namespace {
@@ -134,6 +136,16 @@ exact_transmission::exact_transmission(const model_options& o, double s, double 
     : potential_(o, s, V),
       ef_t_(o.tip.fermi_energy_J),
       ef_s_eV_(si::elementary_charge * V + o.sample.fermi_energy_J) {
+    location where;
+    if (!(rel_tol >= 1e-13 && rel_tol <= 1e-2)) {
+        where.key = "tolerance";
+        throw_input(where, fmt::format("{:g} is out of range; expected a relative tolerance in [1e-13, 1e-2]", rel_tol));
+    }
+    if (!(highest > lowest && std::isfinite(lowest) && std::isfinite(highest))) {
+        where.key = "energy";
+        throw_input(where, fmt::format("energy range [{:g}, {:g}] eV is empty", lowest / si::electron_volt,
+                                       highest / si::electron_volt));
+    }
     choose_mesh(lowest, highest, rel_tol);
 }
 

@@ -75,6 +75,8 @@ public:
     // options: junction (validated); gap_m: s (m), > 0; bias_V: sample bias (V);
     // lowest_J < highest_J: energy range the mesh is checked on (J, from the tip Fermi level),
     // lowest_J above both band bottoms; rel_tol: relative accuracy of T, [1e-13, 1e-2].
+    // Throws tipgap::error (input, key "tolerance" / "energy") for a rel_tol out of range or an
+    // empty energy range.
     exact_transmission(const model_options& options, double gap_m, double bias_V, double lowest_J, double highest_J,
                        double rel_tol);
     // Same, with the mesh checked over [max band bottom + 1 meV, 0] and [-eV, 0].

@@ -26,7 +26,14 @@ struct transfer_matrix {
 inline void magnus_step(transfer_matrix& M, double h, double c, double vh) {
     const double mu2 = c * c + vh * h;
     double C, S;
-    if (mu2 > 1e-3) {
+    if (mu2 > 1.0) {
+        // Evanescent step: exp(mu) is taken out into the log scale, so that a long step through a
+        // high barrier (mu of hundreds) cannot overflow before renormalise() sees it.
+        const double mu = std::sqrt(mu2), q = std::exp(-2.0 * mu);
+        C = 0.5 * (1.0 + q);
+        S = 0.5 * (1.0 - q) / mu;
+        M.log_scale += mu;
+    } else if (mu2 > 1e-3) {
         const double mu = std::sqrt(mu2), e = std::exp(mu), ie = 1.0 / e;
         C = 0.5 * (e + ie);
         S = 0.5 * (e - ie) / mu;
