@@ -48,7 +48,7 @@ double rectangle(double E, double V0, double a) {
 }
 
 // The image-free trapezoid U(x) = U0 + (Us - U0) x/s with plane waves outside, written with Airy
-// functions (Gundlach 1966, Surf. Sci. 4, 24): with F = (Us - U0)/s, beta = cbrt(2m F/hbar^2) and
+// functions (K. H. Gundlach, Solid-State Electron. 9, 949 (1966), reference from memory): with F = (Us - U0)/s, beta = cbrt(2m F/hbar^2) and
 // z(x) = (2m/hbar^2)(U(x) - E)/beta^2, psi = c1 Ai(z) + c2 Bi(z), psi' = beta (c1 Ai'(z) + c2 Bi'(z)).
 // A transmitted wave t e^{i k_s x} at x = s fixes c/t through the Wronskian W(Ai, Bi) = 1/pi:
 //   c/t = (pi/beta) (beta Bi'(z_s) - i k_s Bi(z_s), -beta Ai'(z_s) + i k_s Ai(z_s)),
