@@ -168,7 +168,7 @@ config parse_root(const YAML::Node& root, const std::string& name) {
     if (root["method"]) {
         std::string v = r.scalar(root["method"], "method");
         if (!from_string(v, c.model.method)) {
-            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected wkb or simmons", quote_input(v)));
+            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected wkb, simmons or exact", quote_input(v)));
         }
     }
     if (root["tolerance"]) c.model.rel_tol = r.quantity(root["tolerance"], "tolerance", dimension::dimensionless);

@@ -20,6 +20,7 @@ const char* to_string(method_kind k) {
     switch (k) {
         case method_kind::wkb: return "wkb";
         case method_kind::simmons: return "simmons";
+        case method_kind::exact: return "exact";
     }
     return "?";
 }
@@ -35,7 +36,7 @@ bool from_string(const std::string& s, image_kind& out) {
 }
 
 bool from_string(const std::string& s, method_kind& out) {
-    for (method_kind k : {method_kind::wkb, method_kind::simmons}) {
+    for (method_kind k : {method_kind::wkb, method_kind::simmons, method_kind::exact}) {
         if (s == to_string(k)) {
             out = k;
             return true;

@@ -91,6 +91,12 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
         p.conductance_G0 = p.conductance_S / si::conductance_quantum;
         const double kappa_per_nm = p.q.decay_constant_per_m * 1e-9;
         p.nm_per_decade = kappa_per_nm > 0 ? std::log(10.0) / (2.0 * kappa_per_nm) : 0.0;
+        if (!fixed_area && V != 0.0 && p.current_A != 0.0) {
+            // The paraboloid sums J over local gaps, so d ln|I|/dV differs from the planar value.
+            const double dV = bias_step(c.model, V);
+            p.q.dlnI_dV_per_V = (total_current(c.model, c.geometry, s, V + dV) -
+                                 total_current(c.model, c.geometry, s, V - dV)) / (2.0 * dV * p.current_A);
+        }
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
     });
     return out;

@@ -1,6 +1,7 @@
 #pragma once
 // Tunnelling current density through the planar gap (Tsu-Esaki form) and the quantities derived
 // from it at one (gap, bias) point.
+#include <limits>
 #include <string>
 
 #include "tipgap/model/model.hpp"
@@ -30,12 +31,20 @@ struct point_quantities {
     double current_density_A_per_m2 = 0;
     double conductance_density_S_per_m2 = 0;  // J / V (zero-bias limit dJ/dV when V = 0)
     double differential_conductance_density_S_per_m2 = 0;  // dJ/dV
+    // d ln|J|/dV (1/V): (dJ/dV)/J, NaN at V = 0 (where J = 0). Equal to d ln|I|/dV whenever the tip
+    // area is fixed (planar, contact-anchored); predict_points replaces it by the total current's for
+    // a paraboloid tip. With `method: exact` its peaks are the field-emission resonances.
+    double dlnI_dV_per_V = std::numeric_limits<double>::quiet_NaN();
     double decay_constant_per_m = 0;          // kappa = -1/2 d ln|J| / ds
     double apparent_barrier_J = 0;            // (hbar^2 / 8m) (d ln|J| / ds)^2
     double barrier_top_J = 0;                 // maximum of U above the emitting Fermi level
     double barrier_width_m = 0;               // forbidden width at the emitting Fermi level
     regime kind = regime::direct_tunnelling;
 };
+
+// Central-difference step (V) of the bias derivatives at bias_V (V): max(1 mV, 1 % of |V|), and
+// 0.2 % for `method: exact`, whose resonances are narrower than 1 % of the bias.
+double bias_step(const model_options& options, double bias_V);
 
 // Evaluates J and its derivatives (central differences, steps chosen for the tolerance).
 point_quantities evaluate_point(const model_options& options, double gap_m, double bias_V);

@@ -14,6 +14,8 @@ enum class method_kind {
     simmons,  // Simmons 1963 intermediate-voltage closed form over the same barrier; where the
               // formula is invalid (collapsed barrier, or thinner than about one decay length,
               // A sqrt(phibar) < 2) the numerical WKB result is used instead
+    exact,    // Schrödinger equation through the barrier (tipgap/model/exact_transmission.hpp) and
+              // the same Tsu-Esaki energy integral; field-emission resonances included
 };
 
 // Enum <-> string, the one place for the names used in YAML, on the command line and in JSON.
