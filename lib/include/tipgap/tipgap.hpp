@@ -16,6 +16,7 @@
 
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
+#include "tipgap/core/error_line.hpp"
 #include "tipgap/core/units.hpp"
 
 #include "tipgap/model/barrier.hpp"
@@ -45,6 +46,7 @@
 #include "tipgap/fit/model_fit.hpp"
 
 #include "tipgap/grid/grid.hpp"
+#include "tipgap/grid/grid_arrays.hpp"
 #include "tipgap/grid/map.hpp"
 #include "tipgap/grid/map_files.hpp"
 

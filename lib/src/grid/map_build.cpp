@@ -104,6 +104,10 @@ map_statistics summarize(const std::vector<double>& values) {
 }
 
 barrier_map make_barrier_map(const std::string& path, const map_options& options) {
+    return make_barrier_map([&](const grid_visitor& visit) { return read_grid(path, options.read, visit); }, options);
+}
+
+barrier_map make_barrier_map(const grid_source& source, const map_options& options) {
     options.validate();
     const unsigned slots = resolved_threads(options.read) + 1;
     struct slot_state {
@@ -159,7 +163,7 @@ barrier_map make_barrier_map(const std::string& path, const map_options& options
 
     const auto t0 = std::chrono::steady_clock::now();
     barrier_map out;
-    out.grid = read_grid(path, options.read, visit);
+    out.grid = source(visit);
     out.read_and_fit_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
 
     out.nx = out.grid.x_m.size();
