@@ -49,10 +49,12 @@
 #include "tipgap/grid/grid_arrays.hpp"
 #include "tipgap/grid/map.hpp"
 #include "tipgap/grid/map_files.hpp"
+#include "tipgap/grid/map_matrices.hpp"
 
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/io/columns.hpp"
+#include "tipgap/io/curve_arrays.hpp"
 #include "tipgap/io/curve_io.hpp"
 
 #include "tipgap/synth/synth.hpp"
