@@ -1,6 +1,7 @@
 """Thread safety: two Python threads calling the module at once get the results of one thread
 alone (the GIL is released during the computation, so the calls really overlap)."""
 import threading
+import time
 
 import numpy
 
@@ -54,3 +55,26 @@ def test_errors_in_threads_are_errors(default_config):
             return str(e)
     a, b = run_in_threads([bad, bad])
     assert a == b == "tipgap: error: gap_nm: gap -1 nm is not positive; expected a gap in (0, 100] nm"
+
+
+def test_gil_is_released_during_the_computation(default_config):
+    """While one thread is inside predict, another runs Python code: the interpreter is not locked.
+    (Not a timing test: it checks that the main thread ran at all in the middle of the call, which
+    it cannot while the GIL is held.)"""
+    gaps = numpy.linspace(0.3, 1.5, 1500)
+    window = {}
+
+    def work():
+        window["start"] = time.perf_counter()
+        tipgap.predict(default_config, gaps, 0.2, threads=1)
+        window["end"] = time.perf_counter()
+
+    t = threading.Thread(target=work)
+    ticks = []
+    t.start()
+    while t.is_alive():
+        ticks.append(time.perf_counter())
+    t.join()
+    start, end = window["start"], window["end"]
+    middle = [x for x in ticks if start + 0.25 * (end - start) < x < start + 0.75 * (end - start)]
+    assert middle, "the main thread did not run during the middle half of the call (%d ticks in all)" % len(ticks)
