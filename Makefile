@@ -56,7 +56,7 @@ check-release: build
 
 check-sanitize: deps
 	cmake -S . -B $(SAN_BUILD) -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_FLAGS_RELWITHDEBINFO="$(SAN_OPT_FLAGS)" \
-	  -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF
+	  -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF -DTIPGAP_PYTHON=OFF
 	cmake --build $(SAN_BUILD) -j $(JOBS)
 	ASAN_OPTIONS=detect_leaks=1:abort_on_error=1 UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
 	  LSAN_OPTIONS=suppressions=$(CURDIR)/tests/sanitizer/lsan.supp:print_suppressions=0 \
