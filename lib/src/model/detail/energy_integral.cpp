@@ -38,7 +38,12 @@ std::vector<double> energy_cuts(double e_lo, double e_up, double top, double e_a
 double supply_bias_derivative(double E, double eV, double kT) {
     const double y = E + eV;
     if (kT <= 0.0) return y < 0.0 ? si::elementary_charge : y > 0.0 ? 0.0 : 0.5 * si::elementary_charge;
-    return si::elementary_charge / (1.0 + std::exp(y / kT));
+    // Beyond +-700 kT the Fermi factor is 1 or 0 to far below double precision of the result;
+    // returning it skips libm's slow overflow and underflow paths.
+    const double z = y / kT;
+    if (z > 700.0) return 0.0;
+    if (z < -700.0) return si::elementary_charge;
+    return si::elementary_charge / (1.0 + std::exp(z));
 }
 
 template <std::size_t K>

@@ -1,6 +1,7 @@
 #include "model/detail/exponent_table.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <vector>
 
@@ -83,10 +84,19 @@ exponent_sample exponent_table::sample(double E) const {
     if (E >= b_.top_J()) return {};
     if (direct_ || E > hi_) return derivatives_ ? wkb_exponent_sample(b_, E, tol_) : node_value(E);
     exponent_sample s;
-    s.theta = std::max(0.0, fit_(E));
-    if (derivatives_) {
-        s.d_ds_per_m = fit_ds_(E);
-        s.d_dV_per_V = fit_dV_(E);
+    if (!derivatives_) {
+        s.theta = std::max(0.0, fit_(E));
+        return s;
+    }
+    // All three share their node count unless theta converged earlier than its derivatives.
+    if (fit_.coefficients().size() == fit_ds_.coefficients().size()) {
+        std::array<double, 3> v{};
+        chebyshev_interpolant::evaluate_together<3>({&fit_, &fit_ds_, &fit_dV_}, E, v);
+        s = {std::max(0.0, v[0]), v[1], v[2]};
+    } else {
+        std::array<double, 2> v{};
+        chebyshev_interpolant::evaluate_together<2>({&fit_ds_, &fit_dV_}, E, v);
+        s = {std::max(0.0, fit_(E)), v[0], v[1]};
     }
     return s;
 }
