@@ -3,11 +3,8 @@
 #include <algorithm>
 #include <boost/math/quadrature/gauss.hpp>
 #include <cmath>
-#include <vector>
 
-#include "model/detail/chebyshev.hpp"
-#include "model/detail/energy_quadrature.hpp"
-#include "model/detail/wkb_core.hpp"
+#include "model/detail/energy_integral.hpp"
 #include "tipgap/model/barrier.hpp"
 #include "tipgap/model/closed_forms.hpp"
 #include "tipgap/model/exact_transmission.hpp"
@@ -17,62 +14,8 @@
 namespace tipgap {
 namespace {
 
-// The WKB exponent theta(E) does not depend on the supply function, and it is analytic in E below
-// the barrier top, so it is sampled once per barrier at Chebyshev-Lobatto energies (doubling the
-// node count until the interpolant predicts the new nodes to within tol) and the energy integral
-// then runs on the interpolant. This is the "reuse work across energies" of the design: ~33 barrier
-// integrals per J instead of one per quadrature node.
-class exponent_table {
-public:
-    exponent_table(const barrier& b, double e_lo, double e_hi, double tol)
-        : b_(b), lo_(e_lo), hi_(e_hi), tol_(tol) {
-        direct_ = b.image() == image_kind::none || !(e_hi > e_lo);
-        if (direct_) return;
-        // Accept n nodes when the last two Chebyshev coefficients (a close bound on the
-        // interpolation error for a geometrically convergent series) are below tol; otherwise
-        // double n, reusing the old nodes.
-        int n = 16;
-        std::vector<double> vals(n + 1);
-        for (int j = 0; j <= n; ++j) vals[j] = wkb_exponent(b, detail::chebyshev_interpolant::node(lo_, hi_, j, n), tol);
-        for (;;) {
-            fit_.fit(lo_, hi_, vals);
-            const auto& c = fit_.coefficients();
-            if (std::abs(c[n]) + std::abs(c[n - 1]) < tol || 2 * n > kMaxNodes) break;
-            std::vector<double> next(2 * n + 1);
-            for (int j = 0; j <= 2 * n; ++j) {
-                next[j] = j % 2 == 0 ? vals[j / 2]
-                                     : wkb_exponent(b, detail::chebyshev_interpolant::node(lo_, hi_, j, 2 * n), tol);
-            }
-            vals.swap(next);
-            n *= 2;
-        }
-    }
-
-    double transmission(double E) const {
-        if (E >= b_.top_J()) return 1.0;
-        if (direct_ || E > hi_) return std::exp(-wkb_exponent(b_, E, tol_));
-        return std::exp(-std::max(0.0, fit_(E)));
-    }
-
-private:
-    static constexpr int kMaxNodes = 256;
-    const barrier& b_;
-    double lo_, hi_, tol_;
-    bool direct_ = false;
-    detail::chebyshev_interpolant fit_;
-};
-
 double wkb_current_density(const model_options& o, double s, double V) {
-    barrier b(o, s, V);
-    const double eV = si::elementary_charge * V;
-    const double kT = si::boltzmann_k * o.temperature_K;
-    const detail::energy_window w = detail::tsu_esaki_window(b.band_bottom_J(), eV, kT);
-    if (w.empty()) return 0.0;
-    // Exponent accuracy: an error d in theta is a relative error d in D, so theta to 0.1 rel_tol.
-    exponent_table table(b, w.e_lo, std::min(b.top_J(), w.e_up), 0.1 * o.rel_tol);
-    // The barrier top is a kink of D(E).
-    return detail::tsu_esaki_integral([&](double E) { return table.transmission(E); }, w, {b.top_J()},
-                                      0.1 * o.rel_tol);
+    return detail::wkb_energy_integral(o, s, V, 1, detail::energy_weight::current).value;
 }
 
 // Mean barrier height above energy E over the forbidden interval, and its width (Simmons' phibar, ds).
@@ -139,48 +82,6 @@ regime classify(const model_options& o, double s, double V, double* top_J, doubl
     // barrier is triangular (Fowler-Nordheim regime).
     double collector_corner = V >= 0 ? o.sample.work_function_J - eV : o.tip.work_function_J;
     return collector_corner < e_emit ? regime::field_emission : regime::direct_tunnelling;
-}
-
-double bias_step(const model_options& o, double V) {
-    // 1 % of V resolves the smooth WKB J(V). The exact J has field-emission resonances of ~0.1 V
-    // width in dJ/dV above the sample work function, which a 0.08 V step at 8 V would flatten by
-    // ~(0.08/0.1)^2; 0.2 % keeps that truncation below 1 % while the quadrature noise (rel_tol / (0.002
-    // V d ln J/dV)) stays far below it.
-    const double fraction = o.method == method_kind::exact ? 0.002 : 0.01;
-    return std::max(1e-3, fraction * std::abs(V));
-}
-
-point_quantities evaluate_point(const model_options& o, double s, double V) {
-    point_quantities p;
-    p.gap_m = s;
-    p.bias_V = V;
-    p.temperature_K = o.temperature_K;
-    p.current_density_A_per_m2 = current_density(o, s, V);
-    // Steps: large enough that the quadrature error (rel_tol) stays far below the difference, small
-    // enough that the O(h^2) truncation error is below 1e-5 relative (ln J is nearly linear in s).
-    const double hs = std::min(0.01e-9, 0.25 * s);
-    double jp = current_density(o, s + hs, V), jm = current_density(o, s - hs, V);
-    const double dV = bias_step(o, V);
-    double jvp = current_density(o, s, V + dV);
-    double jvm = current_density(o, s, V - dV);
-    p.differential_conductance_density_S_per_m2 = (jvp - jvm) / (2.0 * dV);
-    if (V != 0.0 && p.current_density_A_per_m2 != 0.0) {
-        p.dlnI_dV_per_V = p.differential_conductance_density_S_per_m2 / p.current_density_A_per_m2;
-    }
-    p.conductance_density_S_per_m2 = V != 0.0 ? p.current_density_A_per_m2 / V : p.differential_conductance_density_S_per_m2;
-    if (V != 0.0 && jp != 0.0 && jm != 0.0) {
-        double dlnj = (std::log(std::abs(jp)) - std::log(std::abs(jm))) / (2.0 * hs);
-        p.decay_constant_per_m = -0.5 * dlnj;
-        p.apparent_barrier_J = si::hbar * si::hbar / (8.0 * si::electron_mass) * dlnj * dlnj;
-    } else {
-        // At V = 0 use the conductance (J/V has the same s-dependence in the linear-response limit).
-        double gp = current_density(o, s + hs, dV), gm = current_density(o, s - hs, dV);
-        double dlnj = (std::log(std::abs(gp)) - std::log(std::abs(gm))) / (2.0 * hs);
-        p.decay_constant_per_m = -0.5 * dlnj;
-        p.apparent_barrier_J = si::hbar * si::hbar / (8.0 * si::electron_mass) * dlnj * dlnj;
-    }
-    p.kind = classify(o, s, V, &p.barrier_top_J, &p.barrier_width_m);
-    return p;
 }
 
 }  // namespace tipgap

@@ -46,7 +46,33 @@ struct point_quantities {
 // 0.2 % for `method: exact`, whose resonances are narrower than 1 % of the bias.
 double bias_step(const model_options& options, double bias_V);
 
-// Evaluates J and its derivatives (central differences, steps chosen for the tolerance).
+// J and its first derivatives at one (gap, bias) point.
+struct current_density_slopes {
+    double current_density_A_per_m2 = 0;  // J, equal to current_density() bit for bit
+    double d_ds_A_per_m3 = 0;             // dJ/ds at fixed bias
+    double d_dV_S_per_m2 = 0;             // dJ/dV at fixed gap (NaN when not asked for)
+};
+
+// method wkb: one pass of the energy integral; the derivatives are integrated on the same nodes as
+// J (the s- and V-derivatives of the WKB exponent, differentiated under its integral, and of the
+// supply function), at the cost of about 1.2-1.5 J. Other methods: central differences of ln|J| in
+// s (step min(0.01 nm, s/4)) and of J in V (step bias_step: max(1 mV, 1 % of |V|), 0.2 % for exact).
+// gap_m: s (m), > 0; bias_V: sample bias (V); bias_derivative: also compute dJ/dV.
+current_density_slopes current_density_derivatives(const model_options& options, double gap_m, double bias_V,
+                                                   bool bias_derivative = true);
+
+// Zero-bias conductance density G = dJ/dV at V = 0 and its gap derivative, the linear-response
+// limit in which J = G V. method wkb: one pass with the supply's bias derivative e f(E) as weight;
+// other methods: J at +-1 mV and ln|J(s +- h, 1 mV)| differences. gap_m: s (m), > 0.
+struct zero_bias_conductance {
+    double conductance_density_S_per_m2 = 0;  // G (S/m^2)
+    double d_ds_S_per_m3 = 0;                 // dG/ds (S/m^3)
+};
+zero_bias_conductance zero_bias_conductance_density(const model_options& options, double gap_m);
+
+// Evaluates J and its derivatives at one point (current_density_derivatives; at V = 0 the decay
+// constant comes from the zero-bias conductance, whose gap dependence J/V shares in the
+// linear-response limit).
 point_quantities evaluate_point(const model_options& options, double gap_m, double bias_V);
 
 // Regime label and barrier top/width at the emitting Fermi level, without computing J.
