@@ -141,7 +141,10 @@ def test_config_replace_errors():
     assert e.detail == line.split("--tip-material: ", 1)[1]
     with pytest.raises(TypeError, match="unexpected keyword argument 'temperature'"):
         cfg.replace(temperature=300)
-    assert message_of(lambda: cfg.replace(method="exact")).key == "method"
+    # Since issue 12 `exact` is a method; an unknown one gets the configuration file's wording.
+    assert cfg.replace(method="exact").to_dict()["method"] == "exact"
+    e = message_of(lambda: cfg.replace(method="airy"))
+    assert e.key == "method" and e.detail == "'airy' is not a method; expected wkb, simmons or exact"
 
 
 @pytest.mark.parametrize("call", [

@@ -64,7 +64,7 @@ const std::vector<std::pair<std::string, setter>>& setters() {
         {"relative_permittivity", [](config& c, const py::handle& v) { c.model.relative_permittivity = number(v); }},
         {"temperature_K", [](config& c, const py::handle& v) { c.model.temperature_K = number(v); }},
         {"method",
-         [](config& c, const py::handle& v) { c.model.method = named<method_kind>(v, "method", "a method; expected wkb or simmons"); }},
+         [](config& c, const py::handle& v) { c.model.method = named<method_kind>(v, "method", "a method; expected wkb, simmons or exact"); }},
         {"tolerance", [](config& c, const py::handle& v) { c.model.rel_tol = number(v); }},
         {"bias_limit_V", [](config& c, const py::handle& v) { c.model.bias_limit_V = number(v); }},
         {"geometry",
@@ -135,7 +135,7 @@ void bind_config(py::module_& m) {
              "image_potential                  'exact', 'approximate' or 'none'\n"
              "relative_permittivity            [1, 1000] (1: vacuum)\n"
              "temperature_K                    [0, 2000] K\n"
-             "method                           'wkb' or 'simmons'\n"
+             "method                           'wkb', 'simmons' or 'exact'\n"
              "tolerance                        relative accuracy of J, [1e-12, 1e-2]\n"
              "bias_limit_V                     (0, 100] V\n"
              "geometry                         'planar', 'paraboloid' or 'contact_anchored'\n"

@@ -43,7 +43,7 @@ class Config:
         image_potential: Literal["exact", "approximate", "none"] = ...,
         relative_permittivity: float = ...,
         temperature_K: float = ...,
-        method: Literal["wkb", "simmons"] = ...,
+        method: Literal["wkb", "simmons", "exact"] = ...,
         tolerance: float = ...,
         bias_limit_V: float = ...,
         geometry: Literal["planar", "paraboloid", "contact_anchored"] = ...,
