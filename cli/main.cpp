@@ -14,6 +14,7 @@
 
 #include "command.hpp"
 #include "tipgap/core/error.hpp"
+#include "tipgap/core/error_line.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -66,15 +67,6 @@ void add_command(CLI::App& app, command c) {
     CLI::App* cmd = app.add_subcommand(c.name, c.description);
     for (const flag& f : c.flags) add_flag(cmd, f);
     cmd->callback([cmd, run = std::move(c.run)] { run(command_line(cmd)); });
-}
-
-// Replaces line breaks and other control bytes so that a message is always exactly one line.
-std::string one_line(std::string text) {
-    for (char& ch : text) {
-        auto u = static_cast<unsigned char>(ch);
-        if (u < 0x20 || u == 0x7F) ch = ' ';
-    }
-    return text;
 }
 
 // "tipgap predict" for a failure inside `predict`, else "tipgap".
@@ -199,10 +191,7 @@ int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
 }
 
 int report_error(const tipgap::error& e) {
-    const char* label = e.kind() == error_kind::usage       ? "usage error"
-                        : e.kind() == error_kind::no_answer ? "no answer"
-                                                            : "error";
-    std::fprintf(stderr, "tipgap: %s: %s\n", label, one_line(e.what()).c_str());
+    std::fprintf(stderr, "%s\n", error_line(e).c_str());
     return static_cast<int>(e.kind());
 }
 

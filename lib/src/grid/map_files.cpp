@@ -99,7 +99,7 @@ const std::vector<column<barrier_map>>& grid_columns() {
     using b = barrier_map;
     static const std::vector<column<b>> columns = {
         {"path", "", [](const b& m) { return m.grid.path; }},
-        {"layout", "", [](const b& m) { return m.grid.directory ? "directory" : "csv"; }},
+        {"layout", "", [](const b& m) { return m.grid.directory ? "directory" : m.grid.arrays ? "arrays" : "csv"; }},
         {"nx", "", [](const b& m) { return m.nx; }},
         {"ny", "", [](const b& m) { return m.ny; }},
         {"pixels", "", [](const b& m) { return m.grid.pixels; }},

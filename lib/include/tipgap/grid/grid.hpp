@@ -66,6 +66,7 @@ struct grid_read_options {
 struct grid_layout {
     std::string path;                      // as given
     bool directory = false;                // a directory of curve files
+    bool arrays = false;                   // arrays in memory (grid_arrays.hpp), not a file
     curve_metadata metadata;               // the long CSV's '#' lines; for a directory the first
                                            // file's (by name)
     std::vector<double> x_m;               // distinct x values, ascending, m
