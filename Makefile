@@ -39,8 +39,8 @@ deps:
 	fi
 
 # One build tree for both commands: `make demo` builds only the `tipgap` executable and the Python
-# module `tipgap_python` (and the library they
-# links), `make check` then builds the rest in the same tree without recompiling the library.
+# module `tipgap_python` (and the library they link), `make check` then builds the rest in the same
+# tree without recompiling the library.
 configure: deps
 	cmake -S . -B $(BUILD) -DCMAKE_BUILD_TYPE=Release
 
