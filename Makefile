@@ -1,5 +1,6 @@
 # Thin wrapper for the README's two commands. Everything real lives in CMake.
-#   make demo   install missing Debian packages, build (Release), run `tipgap demo`
+#   make demo   install missing Debian packages, build the library and the executable only
+#               (Release; no tests, benchmarks or fuzzers), run `tipgap demo`
 #   make check  install missing Debian packages, then
 #               1. Release build + the whole ctest suite,
 #               2. ASan+UBSan build (build-asan/) + the ctest suite without the SciPy cross-checks,
@@ -24,7 +25,7 @@ DEBIAN_PACKAGES = cmake g++ make pkg-config libboost-math-dev libeigen3-dev liby
   libgtest-dev libgmock-dev libcli11-dev libfmt-dev nlohmann-json3-dev libplplot-dev plplot-driver-cairo \
   libbenchmark-dev python3 python3-numpy python3-scipy clang libclang-rt-14-dev time
 
-.PHONY: deps build demo check check-release check-sanitize fuzz
+.PHONY: deps configure build demo check check-release check-sanitize fuzz
 
 deps:
 	@missing=""; for p in $(DEBIAN_PACKAGES); do \
@@ -36,11 +37,16 @@ deps:
 	  $$SUDO apt-get update && DEBIAN_FRONTEND=noninteractive $$SUDO apt-get install -y $$missing; \
 	fi
 
-build: deps
+# One build tree for both commands: `make demo` builds only the `tipgap` target (and the library it
+# links), `make check` then builds the rest in the same tree without recompiling the library.
+configure: deps
 	cmake -S . -B $(BUILD) -DCMAKE_BUILD_TYPE=Release
+
+build: configure
 	cmake --build $(BUILD) -j $(JOBS)
 
-demo: build
+demo: configure
+	cmake --build $(BUILD) -j $(JOBS) --target tipgap
 	$(BUILD)/cli/tipgap demo --out $(DEMO_OUT)
 
 # In this order even under `make -j`: a failing Release suite stops before the slower steps.

@@ -2,11 +2,13 @@
 #include <fmt/format.h>
 #include <memory>
 
-#include "commands.hpp"
+#include "command.hpp"
+#include "flags.hpp"
 #include "output.hpp"
-#include "tipgap/constants.hpp"
-#include "tipgap/reference_table.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/config/config_summary.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/plan/reference_table.hpp"
+#include "tipgap/plan/reference_table_columns.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -32,99 +34,49 @@ std::vector<std::string> split_names(const std::string& s) {
     return out;
 }
 
-nlohmann::json row_json(const reference_row& r) {
-    const double eV = si::electron_volt;
-    return {{"sample", r.sample},
-            {"sample_work_function_eV", r.sample_work_function_J / eV},
-            {"mean_barrier_eV", r.mean_barrier_J / eV},
-            {"decay_constant_per_nm", r.decay_constant_per_m * 1e-9},
-            {"nm_per_decade", r.nm_per_decade},
-            {"de_broglie_wavelength_nm", r.de_broglie_wavelength_m * 1e9},
-            {"gap_nm", r.gap_m * 1e9},
-            {"apparent_barrier_eV", r.apparent_barrier_J / eV},
-            {"model_nm_per_decade", r.model_nm_per_decade},
-            {"warnings", r.warnings}};
+std::string explanation(const config& c, double I, double V) {
+    const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
+    return fmt::format("# {} tip (φ_t = {:.3g} eV) · {} geometry · reference setpoint {:g} A at {:g} V\n"
+                       "# φ̄, κ = √(2mφ̄)/ħ, nm/decade = ln10/(2κ) and λ_dB = h/√(2mφ̄): rectangular barrier of "
+                       "the mean work function\n"
+                       "# gap, φ_ap and model nm/decade: the full model at the reference setpoint\n",
+                       tip, c.model.tip.work_function_J / si::electron_volt, to_string(c.geometry.kind), I, V);
 }
 
 void run(const table_args& a) {
-    config c = load_config_or_default(a.config_path);
-    location wi, wv;
-    wi.key = "--current";
-    wv.key = "--bias";
-    const double I = parse_quantity(a.current, dimension::current, wi);
-    const double V = parse_quantity(a.bias, dimension::voltage, wv);
-    location ws;
-    ws.key = "--samples";
-    std::vector<std::string> names = split_names(a.samples);
-    std::vector<reference_row> rows;
-    try {
-        rows = reference_table(c, names, I, V, {}, a.threads);
-    } catch (const error& e) {
-        if (e.where().key == "current" || e.where().key == "bias" || e.where().key == "samples") {
-            location w;
-            w.key = "--" + e.where().key;
-            throw error(e.kind(), w, e.detail());
-        }
-        throw;
-    }
+    const config c = load_config_or_default(a.config_path);
+    const double I = parse_quantity(a.current, dimension::current, location{"", 0, 0, "--current"});
+    const double V = parse_quantity(a.bias, dimension::voltage, location{"", 0, 0, "--bias"});
+    const auto rows = naming_flags("table", flag_error::own_kind,
+                                   [&] { return reference_table(c, split_names(a.samples), I, V, {}, a.threads); });
     for (const auto& r : rows) print_warnings(r.warnings, r.sample);
 
-    const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
-    std::string text;
-    if (a.format == output_format::json) {
-        nlohmann::json j;
-        j["command"] = "table";
-        j["config"] = config_json(c);
-        j["reference_setpoint"] = {{"current_A", I}, {"bias_V", V}};
-        j["rows"] = nlohmann::json::array();
-        for (const auto& r : rows) j["rows"].push_back(row_json(r));
-        text = j.dump(2) + "\n";
-    } else if (a.format == output_format::csv) {
-        text = csv_line({"sample", "sample_work_function_eV", "mean_barrier_eV", "decay_constant_per_nm",
-                         "nm_per_decade", "de_broglie_wavelength_nm", "gap_nm", "apparent_barrier_eV",
-                         "model_nm_per_decade"});
-        for (const auto& r : rows) {
-            auto j = row_json(r);
-            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : full_precision(j[k].get<double>()); };
-            text += csv_line({r.sample, num("sample_work_function_eV"), num("mean_barrier_eV"),
-                              num("decay_constant_per_nm"), num("nm_per_decade"), num("de_broglie_wavelength_nm"),
-                              num("gap_nm"), num("apparent_barrier_eV"), num("model_nm_per_decade")});
-        }
-    } else {
-        text_table t;
-        t.headers = {"sample", "φ_s [eV]", "φ̄ [eV]", "κ [1/nm]", "nm/decade", "λ_dB [nm]", "gap [nm]", "φ_ap [eV]",
-                     "model nm/decade"};
-        for (const auto& r : rows) {
-            auto j = row_json(r);
-            auto num = [&](const char* k) { return j[k].is_null() ? std::string("NaN") : rounded(j[k].get<double>()); };
-            t.rows.push_back({r.sample, num("sample_work_function_eV"), num("mean_barrier_eV"),
-                              num("decay_constant_per_nm"), num("nm_per_decade"), num("de_broglie_wavelength_nm"),
-                              num("gap_nm"), num("apparent_barrier_eV"), num("model_nm_per_decade")});
-        }
-        text = fmt::format("# {} tip (φ_t = {:.3g} eV) · {} geometry · reference setpoint {:g} A at {:g} V\n"
-                           "# φ̄, κ = √(2mφ̄)/ħ, nm/decade = ln10/(2κ) and λ_dB = h/√(2mφ̄): rectangular barrier of "
-                           "the mean work function\n"
-                           "# gap, φ_ap and model nm/decade: the full model at the reference setpoint\n",
-                           tip, c.model.tip.work_function_J / si::electron_volt, to_string(c.geometry.kind), I, V) +
-               t.render();
-    }
-    write_output(a.output, text);
+    report_frame frame{.rows_key = "rows", .sort_keys = true, .before_table = explanation(c, I, V)};
+    frame.json.set("command", "table");
+    frame.json.set("config", config_record(c));
+    record setpoint;
+    setpoint.set("current_A", I);
+    setpoint.set("bias_V", V);
+    frame.json.set("reference_setpoint", setpoint);
+    write_output(a.output, render(a.format, reference_columns(), rows, frame));
 }
 
 }  // namespace
 
-void add_table(CLI::App& app) {
+command table_command() {
     auto a = std::make_shared<table_args>();
-    auto* cmd = app.add_subcommand("table", "Quick-reference table: barrier, decay constant, nm per decade, apparent "
-                                            "barrier and gap at a reference setpoint, for sample materials");
-    cmd->add_option("--config,-c", a->config_path, "Junction configuration (YAML); its tip is used");
-    cmd->add_option("--samples", a->samples,
-                    "Sample materials from the library, comma-separated (gold,graphite); default: all");
-    cmd->add_option("--current", a->current, "Reference setpoint current (default 1nA)");
-    cmd->add_option("--bias", a->bias, "Reference setpoint bias (default 0.1V)");
-    cmd->add_option("--threads", a->threads, "Worker threads (default: all cores)")->check(CLI::Range(0, 256));
-    add_output_options(cmd, a->format, a->output);
-    cmd->callback([a] { run(*a); });
+    command cmd{"table", "Quick-reference table: barrier, decay constant, nm per decade, apparent barrier and gap at a "
+                         "reference setpoint, for sample materials"};
+    cmd.flags = {
+        config_flag(a->config_path, "Junction configuration (YAML); its tip is used"),
+        {"--samples", "Sample materials from the library, comma-separated (gold,graphite); default: all", &a->samples},
+        {"--current", "Reference setpoint current (default 1nA)", &a->current},
+        {"--bias", "Reference setpoint bias (default 0.1V)", &a->bias},
+        {"--threads", "Worker threads (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
+    };
+    for (const flag& f : output_flags(a->format, a->output)) cmd.flags.push_back(f);
+    cmd.run = [a](const std::string&) { run(*a); };
+    return cmd;
 }
 
 }  // namespace tipgap::cli

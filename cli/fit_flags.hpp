@@ -1,11 +1,11 @@
 #pragma once
 // The fit options of `tipgap fit`, shared with `tipgap map`: one set of flag names, help texts
 // and messages.
-#include <CLI/CLI.hpp>
 #include <string>
+#include <vector>
 
-#include "tipgap/fit.hpp"
-#include "tipgap/units.hpp"
+#include "command.hpp"
+#include "tipgap/fit/fit.hpp"
 
 namespace tipgap::cli {
 
@@ -16,14 +16,12 @@ struct fit_flags {
     double confidence = 0.95;
 };
 
-// Adds --noise-floor, --saturation, --current-noise, --model, --calibration-uncertainty,
-// --confidence, --contact-distance and (with_window) --window to `cmd`.
-void add_fit_flags(CLI::App* cmd, fit_flags& f, bool with_window);
+// --noise-floor, --saturation, --current-noise, --model, (with_window) --window,
+// --calibration-uncertainty, --confidence and --contact-distance.
+std::vector<flag> fit_flag_list(fit_flags& f, bool with_window);
 
-// The options the flags ask for; throws tipgap::error (usage) naming the flag.
-fit_options to_fit_options(const fit_flags& f);
-
-// A flag value with a unit, parsed by the library; its errors become usage errors naming `flag`.
-double flag_quantity(const std::string& text, dimension d, const char* flag);
+// The options the flags ask for, validated by the library; a bad value is a usage error naming
+// its flag (flags.hpp). command: "fit" or "map", for the flag names.
+fit_options to_fit_options(const fit_flags& f, const char* command);
 
 }  // namespace tipgap::cli

@@ -1,26 +1,228 @@
-// tipgap: command-line entry point. Parses arguments, runs one subcommand, and turns every
-// error into one line on stderr and a documented exit code (README "Exit codes").
+// tipgap: command-line entry point, and the one file that includes CLI11. Builds the parser from
+// each command's flag list (command.hpp), runs one subcommand, and turns every error into one line
+// on stderr and a documented exit code (README "Exit codes"):
+//   tipgap: <kind>: <file>:<line>:<column>: <key>: <what was wrong>; expected <what was expected>
+// kind is "error" (bad input, exit 3), "usage error" (bad command line, exit 2), "no answer" (a
+// well-formed request without a solution, exit 4) or "internal error" (a bug, exit 70).
+#include <CLI/CLI.hpp>
 #include <cstdio>
 #include <exception>
+#include <fmt/format.h>
 #include <new>
+#include <string_view>
+#include <vector>
 
-#include "commands.hpp"
-#include "errors.hpp"
-#include "tipgap/error.hpp"
+#include "command.hpp"
+#include "tipgap/core/error.hpp"
+
+namespace tipgap::cli {
+namespace {
+
+// Exit code of an internal error (a bug): EX_SOFTWARE of sysexits.h.
+constexpr int internal_error_exit = 70;
+
+template <class... F>
+struct overloaded : F... {
+    using F::operator()...;
+};
+
+// The output format by its name (enum_names<output_format>, cli/command.hpp).
+CLI::Option* add_format(CLI::App* cmd, const flag& f, output_format& format) {
+    return cmd->add_option_function<std::string>(
+        f.names,
+        [&format, name = f.names](const std::string& s) {
+            if (!from_string(s, format))
+                throw CLI::ValidationError(name, quote_input(s) + " is not an output format; expected " +
+                                                     accepted_names<output_format>());
+        },
+        f.help);
+}
+
+void add_flag(CLI::App* cmd, const flag& f) {
+    CLI::Option* o = std::visit(overloaded{[&](bool* p) { return cmd->add_flag(f.names, *p, f.help); },
+                                           [&](output_format* p) { return add_format(cmd, f, *p); },
+                                           [&](auto* p) { return cmd->add_option(f.names, *p, f.help); }},
+                                f.target);
+    if (!f.type_name.empty()) o->type_name(f.type_name);
+    if (f.required) o->required();
+    if (f.range) o->check(CLI::Range(f.range->first, f.range->second));
+    if (!f.default_text.empty()) o->default_str(f.default_text);
+}
+
+// The command as parsed, in a canonical order, for the metadata of the files it writes.
+std::string command_line(const CLI::App* cmd) {
+    std::string s = "tipgap " + cmd->get_name();
+    for (const CLI::Option* opt : cmd->get_options()) {
+        if (opt->count() == 0 || opt->get_name() == "--help") continue;
+        for (const std::string& v : opt->results()) {
+            const bool quote = v.find_first_of(" \t'\"") != std::string::npos || v.empty();
+            s += fmt::format(" {} {}", opt->get_name(), quote ? "'" + v + "'" : v);
+        }
+    }
+    return s;
+}
+
+void add_command(CLI::App& app, command c) {
+    CLI::App* cmd = app.add_subcommand(c.name, c.description);
+    for (const flag& f : c.flags) add_flag(cmd, f);
+    cmd->callback([cmd, run = std::move(c.run)] { run(command_line(cmd)); });
+}
+
+// Replaces line breaks and other control bytes so that a message is always exactly one line.
+std::string one_line(std::string text) {
+    for (char& ch : text) {
+        auto u = static_cast<unsigned char>(ch);
+        if (u < 0x20 || u == 0x7F) ch = ' ';
+    }
+    return text;
+}
+
+// "tipgap predict" for a failure inside `predict`, else "tipgap".
+std::string command_name(const CLI::App& app) {
+    for (const CLI::App* sub : app.get_subcommands()) return "tipgap " + sub->get_name();
+    return "tipgap";
+}
+
+// "--gap VALUE" / "FILE...": how the option is written, from its type name when it has one.
+std::string option_usage(const CLI::App& app, const std::string& name) {
+    std::string type = "VALUE";
+    for (const CLI::App* sub : app.get_subcommands()) {
+        if (const CLI::Option* o = sub->get_option_no_throw(name)) {
+            if (!o->get_type_name().empty() && o->get_type_name() != "TEXT") type = o->get_type_name();
+            if (o->get_positional() && o->get_lnames().empty() && o->get_snames().empty()) return type;
+        }
+    }
+    return name + " " + type;
+}
+
+std::string subcommand_list(const CLI::App& app) {
+    std::string out;
+    for (const CLI::App* sub : app.get_subcommands([](const CLI::App*) { return true; })) {
+        if (sub->get_name().empty()) continue;
+        out += (out.empty() ? "" : ", ") + sub->get_name();
+    }
+    return out;
+}
+
+bool starts_with(const std::string& s, std::string_view p) { return s.compare(0, p.size(), p) == 0; }
+bool ends_with(const std::string& s, std::string_view p) {
+    return s.size() >= p.size() && s.compare(s.size() - p.size(), p.size(), p) == 0;
+}
+// "name: rest" -> name and rest (name without spaces); false when the text is not of that form.
+bool split_name(const std::string& s, std::string& name, std::string& rest) {
+    const std::size_t colon = s.find(": ");
+    if (colon == std::string::npos || colon == 0 || s.find(' ') < colon) return false;
+    name = s.substr(0, colon);
+    rest = s.substr(colon + 2);
+    return true;
+}
+
+// The one-line text of a command-line parse error, rewritten from CLI11's wording into the format
+// above and naming the help command of the subcommand being parsed.
+std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
+    const std::string what = e.what();
+    const std::string help = fmt::format("see '{} --help'", command_name(app));
+    // CLI11's wordings (CLI/Error.hpp, CLI/Validators.hpp of CLI11 2.1), matched as plain text.
+    if (what == "A subcommand is required") {
+        const std::vector<std::string> rest = app.remaining();
+        if (!rest.empty()) {
+            return fmt::format("{} is not a command; expected one of: {} (see 'tipgap --help')",
+                               quote_input(rest.front()), subcommand_list(app));
+        }
+        return fmt::format("no command given; expected one of: {} (see 'tipgap --help')", subcommand_list(app));
+    }
+    constexpr std::string_view is_required = " is required";
+    if (ends_with(what, is_required) && what.find(' ') == what.size() - is_required.size()) {
+        const std::string name = what.substr(0, what.size() - is_required.size());
+        return fmt::format("{}: missing; expected {} ({})", name, option_usage(app, name), help);
+    }
+    for (std::string_view prefix : {"The following argument was not expected: ",
+                                    "The following arguments were not expected: "}) {
+        if (!starts_with(what, prefix)) continue;
+        // CLI11 lists the extras last first; put them back in command-line order.
+        std::vector<std::string> words;
+        const std::string list = what.substr(prefix.size());
+        for (std::size_t i = 0; i <= list.size();) {
+            std::size_t sp = list.find(' ', i);
+            if (sp == std::string::npos) sp = list.size();
+            if (sp > i) words.insert(words.begin(), list.substr(i, sp - i));
+            i = sp + 1;
+        }
+        std::string in_order;
+        for (const auto& w : words) in_order += (in_order.empty() ? "" : " ") + w;
+        return fmt::format("{} not understood; expected only the options and arguments listed by '{} --help'",
+                           quote_input(in_order), command_name(app));
+    }
+    std::string name, rest;
+    if (split_name(what, name, rest)) {
+        // "--points: Value 1 not in range 2 to 1000000"
+        const std::size_t in_range = rest.find(" not in range ");
+        const std::size_t to = rest.rfind(" to ");
+        if (starts_with(rest, "Value ") && in_range != std::string::npos && to != std::string::npos && to > in_range) {
+            const std::string value = rest.substr(6, in_range - 6);
+            const std::string lo = rest.substr(in_range + 14, to - in_range - 14);
+            const std::string hi = rest.substr(to + 4);
+            return fmt::format("{}: {} is not allowed; expected a number from {} to {} ({})", name, quote_input(value),
+                               lo, hi, help);
+        }
+        // "--gap: 1 required TEXT missing"
+        if (ends_with(rest, " missing") && rest.find(" required ") != std::string::npos) {
+            return fmt::format("{}: the value is missing; expected {} ({})", name, option_usage(app, name), help);
+        }
+    }
+    // "Could not convert: --confidence = abc"
+    constexpr std::string_view convert = "Could not convert: ";
+    if (starts_with(what, convert)) {
+        const std::size_t eq = what.find(" = ", convert.size());
+        if (eq != std::string::npos) {
+            return fmt::format("{}: {} is not a valid value; expected a number ({})",
+                               what.substr(convert.size(), eq - convert.size()), quote_input(what.substr(eq + 3)), help);
+        }
+    }
+    // "The value abc is not an allowed value for --confidence"
+    constexpr std::string_view value_prefix = "The value ";
+    constexpr std::string_view not_allowed = " is not an allowed value for ";
+    if (starts_with(what, value_prefix)) {
+        const std::size_t at = what.rfind(not_allowed);
+        if (at != std::string::npos && at >= value_prefix.size()) {
+            return fmt::format("{}: {} is not a valid value; expected a number ({})",
+                               what.substr(at + not_allowed.size()),
+                               quote_input(what.substr(value_prefix.size(), at - value_prefix.size())), help);
+        }
+    }
+    return fmt::format("{} ({})", what, help);
+}
+
+int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
+    std::fprintf(stderr, "tipgap: usage error: %s\n", one_line(usage_message(app, e)).c_str());
+    return static_cast<int>(error_kind::usage);
+}
+
+int report_error(const tipgap::error& e) {
+    const char* label = e.kind() == error_kind::usage       ? "usage error"
+                        : e.kind() == error_kind::no_answer ? "no answer"
+                                                            : "error";
+    std::fprintf(stderr, "tipgap: %s: %s\n", label, one_line(e.what()).c_str());
+    return static_cast<int>(e.kind());
+}
+
+int report_internal_error(const std::string& what) {
+    std::fprintf(stderr, "tipgap: internal error (this is a bug; please report it with the command line): %s\n",
+                 one_line(what).c_str());
+    return internal_error_exit;
+}
+
+}  // namespace
+}  // namespace tipgap::cli
 
 int main(int argc, char** argv) {
+    using namespace tipgap::cli;
     CLI::App app{"tipgap: tunnelling-gap model, setpoint planner and current-distance fitter for STM users"};
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
-    tipgap::cli::add_predict(app);
-    tipgap::cli::add_plan(app);
-    tipgap::cli::add_table(app);
-    tipgap::cli::add_fit(app);
-    tipgap::cli::add_map(app);
-    tipgap::cli::add_synth(app);
-    tipgap::cli::add_demo(app);
-
+    for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, demo_command})
+        add_command(app, make());
     try {
         app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -30,15 +232,15 @@ int main(int argc, char** argv) {
     } catch (const CLI::CallForVersion& e) {
         return app.exit(e);
     } catch (const CLI::ParseError& e) {
-        return tipgap::cli::report_parse_error(app, e);
+        return report_parse_error(app, e);
     } catch (const tipgap::error& e) {
-        return tipgap::cli::report_error(e);
+        return report_error(e);
     } catch (const std::bad_alloc&) {
-        return tipgap::cli::report_internal_error("out of memory");
+        return report_internal_error("out of memory");
     } catch (const std::exception& e) {
-        return tipgap::cli::report_internal_error(e.what());
+        return report_internal_error(e.what());
     } catch (...) {
-        return tipgap::cli::report_internal_error("an exception that is not a std::exception");
+        return report_internal_error("an exception that is not a std::exception");
     }
     return 0;
 }

@@ -1,69 +1,76 @@
 #pragma once
-// Shared CLI plumbing: output formats, tables, writing to stdout or atomically to --output.
-#include <CLI/CLI.hpp>
-#include <nlohmann/json.hpp>
+// Shared CLI plumbing: the output flags, writing to stdout or atomically to --output, warnings on
+// stderr, and render(): the one place that picks the table, the CSV or the JSON of declared columns.
+#include <cstdio>
+#include <fmt/format.h>
 #include <string>
 #include <string_view>
 #include <vector>
 
-#include "tipgap/config.hpp"
-#include "tipgap/uncertainty.hpp"
+#include "command.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/io/columns.hpp"
+#include "tipgap/plan/uncertainty.hpp"
 
 namespace tipgap::cli {
 
-enum class output_format { table, csv, json };
-
-// "table", "csv", "json": the one place for the names used on the command line.
-const char* to_string(output_format f);
-bool from_string(std::string_view s, output_format& out);
-
-// Adds --format table|csv|json to `cmd`, storing into `format`.
-CLI::Option* add_format_option(CLI::App* cmd, output_format& format);
-
-// Adds --format table|csv|json and --output FILE to a subcommand.
-void add_output_options(CLI::App* cmd, output_format& format, std::string& output_path);
+// --format table|csv|json.
+flag format_flag(output_format& format);
+// --format and --output,-o FILE.
+std::vector<flag> output_flags(output_format& format, std::string& path);
+// --mc-samples N and --seed S (Monte Carlo draws for configured input uncertainties).
+std::vector<flag> uncertainty_flags(uncertainty_options& o);
+// --config,-c FILE.
+flag config_flag(std::string& path, const char* help);
 
 // Writes `content` to stdout when `path` is empty or "-", else atomically to `path`.
 void write_output(const std::string& path, std::string_view content);
 
-// Quotes a CSV cell when it holds a comma, quote or newline (RFC 4180).
-std::string csv_cell(std::string_view s);
+// Prints each warning to stderr as "tipgap: warning: [context: ]...".
+void print_warnings(const std::vector<std::string>& warnings, const std::string& context = "");
 
-// A table of strings with a header row: rendered aligned for reading, or as CSV.
-struct text_table {
-    std::vector<std::string> headers;
-    std::vector<std::vector<std::string>> rows;
-    std::string render() const;
-};
-
-// A double at full precision (17 significant digits, enough to round-trip) for CSV.
-std::string full_precision(double v);
-// Rounded for tables: `digits` significant digits.
-std::string rounded(double v, int digits = 4);
-
-// CSV line from cells (each through csv_cell), ending in a newline.
-std::string csv_line(const std::vector<std::string>& cells);
+// Prints the warnings of the first three items that have any (context(item) names the item), then
+// how many more `noun` have warnings.
+template <class Items, class Context>
+void print_first_warnings(const Items& items, Context context, const char* noun) {
+    std::size_t shown = 0, warned = 0;
+    for (const auto& x : items) {
+        if (x.warnings.empty()) continue;
+        ++warned;
+        if (shown++ < 3) print_warnings(x.warnings, context(x));
+    }
+    if (warned > 3) fmt::print(stderr, "tipgap: warning: ... and {} more {} with warnings (see the output)\n", warned - 3, noun);
+}
 
 // --config FILE, or the built-in default when empty.
-tipgap::config load_config_or_default(const std::string& path);
+config load_config_or_default(const std::string& path);
 
-// JSON summary of a configuration (for output metadata).
-nlohmann::json config_json(const tipgap::config& c);
+// "# <source> · T = ... K · image ... · method ... · geometry ...": the first line of a table.
+std::string config_line(const config& c);
 
-// Adds the uncertainty of each output to a point's JSON: NAME_stddev, NAME_ci95 [lo, hi] and
-// NAME_mc_mean (Monte Carlo, when drawn), NAME_linear_stddev and NAME_linear_ci95 (when computed).
-void add_uncertainty_json(nlohmann::json& point, const tipgap::uncertainty_summary& u);
+// "# ± : ..." saying what the ± of a table is, or "" without uncertain inputs. of: what it is the
+// uncertainty of (" of I"), or "".
+std::string uncertainty_line(const std::vector<uncertainty_summary>& u, const char* of);
+// The first summary with uncertain inputs, or nullptr.
+const uncertainty_summary* first_uncertain(const std::vector<uncertainty_summary>& u);
 
-// The "uncertainty" block of a command's JSON: method, inputs, samples, seed, redrawn, failed.
-nlohmann::json uncertainty_info_json(const tipgap::uncertainty_summary& u);
+// What goes around the rows in each format.
+struct report_frame {
+    record json = record{};     // the JSON document; the rows are added under rows_key
+    std::string rows_key = "";
+    bool sort_keys = false;     // JSON keys in byte order (predict, plan and table always wrote them so)
+    std::string before_table = "";  // lines above the table
+    std::string after_table = "";   // lines below it
+    table_layout layout = {};
+};
 
-// "value ± u" for tables (rounded); just the value when u is NaN.
-std::string rounded_pm(double value, double u, int digits = 4);
-
-// Adds --mc-samples N and --seed S (Monte Carlo draws for configured input uncertainties).
-void add_uncertainty_options(CLI::App* cmd, tipgap::uncertainty_options& o);
-
-// Prints each warning to stderr as "tipgap: warning: ...".
-void print_warnings(const std::vector<std::string>& warnings, const std::string& context = "");
+// The rows in the asked format: the table, the CSV, or the JSON document with the rows in it.
+template <class T, class Rows>
+std::string render(output_format f, const std::vector<column<T>>& columns, const Rows& rows, report_frame frame) {
+    if (f == output_format::csv) return format_csv(columns, rows);
+    if (f == output_format::table) return frame.before_table + format_table(columns, rows, frame.layout) + frame.after_table;
+    frame.json.set(frame.rows_key, to_records(columns, rows));
+    return json_text(frame.json, frame.sort_keys);
+}
 
 }  // namespace tipgap::cli

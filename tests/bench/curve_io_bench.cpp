@@ -6,8 +6,8 @@
 #include <fmt/format.h>
 #include <string>
 
-#include "tipgap/curve_io.hpp"
-#include "tipgap/fit.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/fit/fit.hpp"
 
 namespace {
 

@@ -11,8 +11,9 @@
 #include <random>
 #include <unistd.h>
 
-#include "tipgap/fit.hpp"
-#include "tipgap/grid.hpp"
+#include "fit/detail/fit_fast.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/grid/grid.hpp"
 
 namespace {
 

@@ -2,8 +2,8 @@
 // wkb evaluations per second per core at 1e-6 relative accuracy, exact image, 4.2 K).
 #include <benchmark/benchmark.h>
 
-#include "tipgap/config.hpp"
-#include "tipgap/current.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/model/current.hpp"
 
 namespace {
 

@@ -1,8 +1,8 @@
 // Cost of one gap solve per geometry: wall time, and model evaluations per solve as a counter.
 #include <benchmark/benchmark.h>
 
-#include "tipgap/config.hpp"
-#include "tipgap/plan.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/plan/plan.hpp"
 
 static void solve(benchmark::State& state) {
     tipgap::config c = tipgap::default_config();

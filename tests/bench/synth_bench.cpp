@@ -7,7 +7,7 @@
 #include <string>
 #include <unistd.h>
 
-#include "tipgap/synth.hpp"
+#include "tipgap/synth/synth.hpp"
 
 namespace {
 

@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # `cmake --install` gives a package another CMake project can find_package(tipgap) and link:
-# install into a temporary prefix, build a tiny consumer against it, run it.
+# install into a temporary prefix, build a tiny consumer against it, run it. The consumer includes
+# the umbrella header with only tipgap's include directory, warnings on: every public header
+# compiles without Boost, Eigen, fmt, yaml-cpp or PLplot (those are linked PRIVATE).
 set -euo pipefail
 T="${TIPGAP:?}"
 build=$(cd "$(dirname "$T")/.." && pwd)
@@ -15,11 +17,13 @@ set(CMAKE_CXX_STANDARD 20)
 find_package(tipgap REQUIRED)
 add_executable(consumer main.cpp)
 target_link_libraries(consumer PRIVATE tipgap::core)
+target_compile_options(consumer PRIVATE -Wall -Wextra -Wpedantic)
 CM
 cat > "$tmp/consumer/main.cpp" <<'CPP'
 #include <cstdio>
-#include "tipgap/config.hpp"
-#include "tipgap/current.hpp"
+#include "tipgap/tipgap.hpp"
+#include "tipgap/config/config.hpp"
+#include "tipgap/model/current.hpp"
 int main() {
     auto c = tipgap::default_config();
     double j = tipgap::current_density(c.model, 0.6e-9, 0.1);

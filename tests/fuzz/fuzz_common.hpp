@@ -6,7 +6,7 @@
 #include <cstdio>
 #include <string>
 
-#include "tipgap/error.hpp"
+#include "tipgap/core/error.hpp"
 
 namespace tipgap::fuzz {
 

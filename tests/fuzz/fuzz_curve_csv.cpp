@@ -9,8 +9,8 @@
 #include <string_view>
 
 #include "fuzz_common.hpp"
-#include "tipgap/curve_io.hpp"
-#include "tipgap/fit.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/fit/fit.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     const std::string_view text(reinterpret_cast<const char*>(data), size);

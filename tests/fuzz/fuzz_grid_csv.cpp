@@ -11,7 +11,7 @@
 #include <unistd.h>
 
 #include "fuzz_common.hpp"
-#include "tipgap/grid.hpp"
+#include "tipgap/grid/grid.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     static const std::string path = "/tmp/tipgap-fuzz-grid-" + std::to_string(::getpid()) + ".csv";

@@ -5,7 +5,7 @@
 #include <string_view>
 
 #include "fuzz_common.hpp"
-#include "tipgap/units.hpp"
+#include "tipgap/core/units.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     using namespace tipgap;

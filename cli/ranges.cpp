@@ -1,0 +1,60 @@
+#include "ranges.hpp"
+
+#include <cmath>
+#include <fmt/format.h>
+
+#include "tipgap/core/error.hpp"
+
+namespace tipgap::cli {
+
+std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag) {
+    location w;
+    w.key = flag;
+    std::vector<double> out;
+    if (std::size_t dots = text.find(".."); dots != std::string_view::npos) {
+        double a = parse_quantity(text.substr(0, dots), d, w);
+        double b = parse_quantity(text.substr(dots + 2), d, w);
+        if (sp == spacing::logarithmic && !(a * b > 0)) {
+            throw_input(w, "a logarithmic range needs both ends non-zero and of the same sign");
+        }
+        for (int i = 0; i < points; ++i) {
+            double t = static_cast<double>(i) / (points - 1);
+            double v = sp == spacing::linear ? a + (b - a) * t : a * std::pow(b / a, t);
+            out.push_back(i == points - 1 ? b : v);
+        }
+        return out;
+    }
+    std::size_t start = 0;
+    while (start <= text.size()) {
+        std::size_t comma = text.find(',', start);
+        std::string_view item = text.substr(start, comma == std::string_view::npos ? std::string_view::npos : comma - start);
+        out.push_back(parse_quantity(item, d, w));
+        if (comma == std::string_view::npos) break;
+        start = comma + 1;
+    }
+    return out;
+}
+
+std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,
+                                                 bool second_outer) {
+    std::vector<std::pair<double, double>> out;
+    if (second_outer) {
+        for (double b : second)
+            for (double a : first) out.emplace_back(a, b);
+    } else {
+        for (double a : first)
+            for (double b : second) out.emplace_back(a, b);
+    }
+    return out;
+}
+
+void refuse_huge_grid(std::size_t n_first, std::size_t n_second, const char* flag) {
+    // Two ranges of up to 1e6 points each would ask for 1e12 points.
+    constexpr std::size_t max_points = 10'000'000;
+    if (n_first * n_second > max_points) {
+        throw_usage(flag, fmt::format("the grid has {} x {} = {} points; expected at most {} in one run", n_first,
+                                      n_second, n_first * n_second, max_points));
+    }
+}
+
+}  // namespace tipgap::cli

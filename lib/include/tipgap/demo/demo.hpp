@@ -1,0 +1,59 @@
+#pragma once
+// The main job, `tipgap demo`: predictions for the built-in config, fits of every curve in the
+// synthetic demo_scans/ set, and their comparison with the ground truth the synthesiser wrote.
+// Computation only; the CLI formats and writes the report.
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "tipgap/config/config.hpp"
+#include "tipgap/io/curve_io.hpp"
+#include "tipgap/fit/fit.hpp"
+#include "tipgap/fit/model_fit.hpp"
+#include "tipgap/plan/plan.hpp"
+#include "tipgap/plan/predict.hpp"
+#include "tipgap/synth/synth.hpp"
+
+namespace tipgap {
+
+struct demo_options {
+    std::string scans_dir;          // directory of *.csv curves (each with <stem>.truth.yaml, optional)
+    double bias_V = 0.1;            // bias of the prediction sweep (V)
+    double gap_min_m = 0.3e-9;      // prediction sweep (m), 0 < min < max
+    double gap_max_m = 1.5e-9;
+    int gap_points = 25;            // [2, 10000]
+    bool model_comparison = true;   // fit the model (mean work function, gap offset) to each sweep
+    int threads = 0;                // 0 = all cores
+};
+
+struct demo_curve {
+    std::shared_ptr<const measured_curve> curve;
+    std::size_t sweep_index = 0;
+    fit_result fit;
+    std::optional<model_fit_result> model;
+    std::optional<truth_record> truth;       // when <stem>.truth.yaml exists
+    std::optional<synth_sweep_truth> sweep_truth;
+    // κ truth (the expected value, with the instrument's drift and baseline) inside the fit's
+    // confidence interval at fit.confidence_level.
+    bool kappa_within = false;
+    // Same test for the mean work function of the model comparison (interval: ± t · stderr).
+    bool work_function_within = false;
+
+    const curve_sweep& sweep() const { return curve->sweeps[sweep_index]; }
+};
+
+struct demo_report {
+    config cfg;                                  // the built-in default
+    std::vector<prediction> sweep;               // gap sweep at options.bias_V
+    std::vector<demo_curve> curves;              // in file-name order, sweeps in file order
+    // Setpoint ladder at options.bias_V (10 pA .. 10 nA, one per decade): how far the tip sits.
+    std::vector<plan_point> plan;
+    std::vector<std::string> files_without_truth;
+};
+
+// Throws tipgap::error (input) when the directory is missing or holds no curve files; a bad curve
+// file throws with its file:line:column.
+demo_report run_demo(const demo_options& options);
+
+}  // namespace tipgap

@@ -1,0 +1,79 @@
+// tipgap demo, the computation: predict over a gap sweep, fit the demo curves, compare with truth.
+#include "tipgap/demo/demo.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <fmt/format.h>
+
+#include "core/detail/parallel.hpp"
+
+namespace tipgap {
+
+demo_report run_demo(const demo_options& o) {
+    namespace fs = std::filesystem;
+    demo_report rep;
+    rep.cfg = default_config();
+    if (!(o.gap_min_m > 0 && o.gap_max_m > o.gap_min_m && o.gap_points >= 2 && o.gap_points <= 10000))
+        throw_input(location{"", 0, 0, "gap sweep"}, "expected 0 < gap_min < gap_max and 2..10000 points");
+    std::vector<std::pair<double, double>> pts;
+    for (int k = 0; k < o.gap_points; ++k)
+        pts.emplace_back(o.gap_min_m + (o.gap_max_m - o.gap_min_m) * k / (o.gap_points - 1), o.bias_V);
+    rep.sweep = predict_points(rep.cfg, pts, o.threads);
+
+    // The setpoint ladder a newcomer would try first: one current per decade at the sweep's bias.
+    std::vector<std::pair<double, double>> ladder;
+    for (double current : {10e-12, 100e-12, 1e-9, 10e-9}) ladder.emplace_back(current, o.bias_V);
+    rep.plan = plan_setpoints(rep.cfg, ladder, plan_options{}, o.threads);
+
+    std::error_code ec;
+    if (!fs::is_directory(o.scans_dir, ec))
+        throw_input(location{o.scans_dir, 0, 0, ""}, "the demo scans directory does not exist (use --scans DIR)");
+    std::vector<std::string> files;
+    for (const fs::directory_entry& e : fs::directory_iterator(o.scans_dir)) {
+        if (e.is_regular_file() && e.path().extension() == ".csv") files.push_back(e.path().string());
+    }
+    std::sort(files.begin(), files.end());
+    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no *.csv curve files in the demo scans directory");
+
+    const fit_options fo;  // the defaults a user gets from `tipgap fit FILE`
+    for (const std::string& f : files) {
+        auto curve = std::make_shared<const measured_curve>(read_curve_csv(f));
+        std::optional<truth_record> truth;
+        const std::string tp = truth_path_for(f);
+        if (fs::exists(tp)) truth = read_truth(tp);
+        else rep.files_without_truth.push_back(f);
+        std::vector<fit_result> fits = fit_curve(*curve, fo);
+        for (std::size_t k = 0; k < fits.size(); ++k) {
+            demo_curve d;
+            d.curve = curve;
+            d.sweep_index = k;
+            d.fit = std::move(fits[k]);
+            d.truth = truth;
+            if (truth && k < truth->sweeps.size() && truth->sweeps[k].direction == d.fit.direction)
+                d.sweep_truth = truth->sweeps[k];
+            rep.curves.push_back(std::move(d));
+        }
+    }
+
+    // The model comparisons are independent and the slow part: one worker per sweep.
+    detail::parallel_for(rep.curves.size(), o.model_comparison ? o.threads : 1, [&](std::size_t i) {
+        demo_curve& d = rep.curves[i];
+        if (o.model_comparison) {
+            const double bias = d.curve->metadata.bias_V ? *d.curve->metadata.bias_V : std::nan("");
+            d.model = fit_model_to_sweep(rep.cfg, d.sweep(), d.fit, bias, model_fit_options{},
+                                         location{d.curve->file, 0, 0, ""});
+        }
+        if (d.sweep_truth) {
+            const double k = d.sweep_truth->decay_constant_expected_per_m;
+            d.kappa_within = k >= d.fit.decay_constant_ci_low_per_m && k <= d.fit.decay_constant_ci_high_per_m;
+        }
+        if (d.model && d.truth) {
+            const double half = d.model->t_quantile * d.model->mean_work_function_stderr_J;
+            d.work_function_within = std::abs(d.model->mean_work_function_J - d.truth->mean_work_function_J) <= half;
+        }
+    });
+    return rep;
+}
+
+}  // namespace tipgap

@@ -1,0 +1,149 @@
+#include "tipgap/demo/demo_columns.hpp"
+
+#include <filesystem>
+#include <fmt/format.h>
+#include <limits>
+
+#include "tipgap/config/config_summary.hpp"
+#include "tipgap/core/constants.hpp"
+#include "tipgap/plan/predict_columns.hpp"
+
+namespace tipgap {
+
+namespace {
+
+constexpr double J_per_eV = si::electron_volt;
+constexpr scaling to_eV = divided_by(J_per_eV), to_per_nm = times(1e-9);
+
+record truth_record_of(const demo_curve& d) {
+    record t;
+    t.set("decay_constant_expected_per_nm", d.sweep_truth->decay_constant_expected_per_m * 1e-9);
+    t.set("decay_constant_model_per_nm", d.sweep_truth->decay_constant_model_per_m * 1e-9);
+    t.set("apparent_barrier_expected_eV", d.sweep_truth->apparent_barrier_expected_J / J_per_eV);
+    t.set("mean_work_function_eV", d.truth->mean_work_function_J / J_per_eV);
+    t.set("seed", d.truth->seed);
+    return t;
+}
+
+record model_record_of(const demo_curve& d) {
+    const model_fit_result& m = *d.model;
+    record r;
+    r.set("status", to_string(m.status));
+    r.set("mean_work_function_eV", m.mean_work_function_J / J_per_eV);
+    r.set("mean_work_function_stderr_eV", m.mean_work_function_stderr_J / J_per_eV);
+    r.set("gap_offset_nm", m.gap_offset_m * 1e9);
+    r.set("gap_offset_stderr_nm", m.gap_offset_stderr_m * 1e9);
+    r.set("model_apparent_barrier_eV", m.model_apparent_barrier_J / J_per_eV);
+    r.set("work_function_within_ci", d.work_function_within);
+    r.set("warnings", m.warnings);
+    return r;
+}
+
+}  // namespace
+
+const std::vector<column<demo_curve>>& demo_curve_columns() {
+    using d = demo_curve;
+    auto no = [] { return cell(absent{}); };
+    static const std::vector<column<d>> columns = {
+        {.key = "file", .get = [](const d& x) { return x.curve->file; }, .shown = in_data},
+        {.key = "file", .label = "file", .get = [](const d& x) { return std::filesystem::path(x.curve->file).filename().string(); },
+         .shown = in_table},
+        {"direction", "sweep", [](const d& x) { return to_string(x.fit.direction); }},
+        {.key = "decay_constant_per_nm", .label = "kappa [1/nm]", .get = [](const d& x) { return x.fit.decay_constant_per_m; },
+         .scale = to_per_nm, .number = fixed(3), .spread = [](const d& x) { return x.fit.decay_constant_stderr_per_m * 1e-9; }},
+        {"decay_constant_stderr_per_nm", "", [](const d& x) { return x.fit.decay_constant_stderr_per_m; }, to_per_nm, {}, in_data},
+        {"decay_constant_ci_low_per_nm", "", [](const d& x) { return x.fit.decay_constant_ci_low_per_m; }, to_per_nm, {}, in_json},
+        {"decay_constant_ci_high_per_nm", "", [](const d& x) { return x.fit.decay_constant_ci_high_per_m; }, to_per_nm, {}, in_json},
+        {.key = "apparent_barrier_eV", .label = "phi_ap [eV]", .get = [](const d& x) { return x.fit.apparent_barrier_J; },
+         .scale = to_eV, .number = fixed(3), .spread = [](const d& x) { return x.fit.apparent_barrier_stderr_J / J_per_eV; }},
+        {"apparent_barrier_stderr_eV", "", [](const d& x) { return x.fit.apparent_barrier_stderr_J; }, to_eV, {}, in_data},
+        {"nm_per_decade", "", [](const d& x) { return x.fit.length_per_decade_m; }, times(1e9), {}, in_json},
+        {"points_used", "", [](const d& x) { return x.fit.points_used; }, {}, {}, in_json},
+        {"r_squared", "", [](const d& x) { return x.fit.r_squared; }, {}, {}, in_json},
+        {"contact", "", [](const d& x) { return to_string(x.fit.contact.kind); }, {}, {}, in_json},
+        {"saturation_detected", "", [](const d& x) { return x.fit.saturation_detected; }, {}, {}, in_json},
+        {"warnings", "", [](const d& x) { return x.fit.warnings; }, {}, {}, in_json},
+        {"truth", "", [no](const d& x) { return x.sweep_truth ? cell(truth_record_of(x)) : no(); }, {}, {}, in_json},
+        {"truth_decay_constant_per_nm", "truth kappa",
+         [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->decay_constant_expected_per_m) : no(); }, to_per_nm, fixed(3),
+         in_csv | in_table, {}, "-"},
+        {"truth_apparent_barrier_eV", "truth phi_ap",
+         [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->apparent_barrier_expected_J) : no(); }, to_eV, fixed(3),
+         in_table, {}, "-"},
+        {"kappa_within_ci", "kappa in 95% CI", [no](const d& x) { return x.sweep_truth ? cell(x.kappa_within) : no(); }, {}, {},
+         everywhere, {}, "-"},
+        {"model_fit", "", [no](const d& x) { return x.model ? cell(model_record_of(x)) : no(); }, {}, {}, in_json},
+        {"model_mean_work_function_eV", "model W [eV]",
+         [no](const d& x) { return x.model ? cell(x.model->mean_work_function_J) : no(); }, to_eV, fixed(3), in_csv | in_table,
+         [](const d& x) { return x.model ? x.model->mean_work_function_stderr_J / J_per_eV : std::numeric_limits<double>::quiet_NaN(); },
+         "-"},
+        {"model_mean_work_function_stderr_eV", "",
+         [no](const d& x) { return x.model ? cell(x.model->mean_work_function_stderr_J) : no(); }, to_eV, {}, in_csv},
+        {"truth_mean_work_function_eV", "truth W [eV]",
+         [no](const d& x) { return x.truth ? cell(x.truth->mean_work_function_J) : no(); }, to_eV, fixed(3), in_csv | in_table, {},
+         "-"},
+    };
+    return columns;
+}
+
+const std::vector<column<prediction>>& demo_prediction_columns() {
+    static const std::vector<column<prediction>> columns =
+        select_columns(prediction_columns(), {"gap_nm", "bias_V", "current_A", "conductance_G0", "decay_constant_per_nm",
+                                              "apparent_barrier_eV", "regime", "warnings"});
+    return columns;
+}
+
+const std::vector<column<plan_point>>& demo_plan_columns() {
+    using p = plan_point;
+    static const std::vector<column<p>> columns = {
+        {"bias_V", "", [](const p& x) { return x.bias_V; }},
+        {"current_A", "", [](const p& x) { return x.setpoint_A; }},
+        {"gap_nm", "", [](const p& x) { return x.reachable() ? cell(x.solution.gap_m * 1e9) : cell(); }},
+        {"conductance_G0", "", [](const p& x) { return x.conductance_G0; }},
+        {"nm_per_decade", "", [](const p& x) { return x.nm_per_decade; }},
+        {"apparent_barrier_eV", "", [](const p& x) { return x.apparent_barrier_J; }, to_eV},
+        {"regime", "", [](const p& x) { return to_string(x.kind); }},
+        {"warnings", "", [](const p& x) { return x.warnings; }},
+    };
+    return columns;
+}
+
+demo_tally tally(const demo_report& r) {
+    demo_tally t;
+    for (const demo_curve& d : r.curves) {
+        if (!d.sweep_truth) continue;
+        ++t.compared;
+        t.kappa_within += d.kappa_within ? 1 : 0;
+    }
+    return t;
+}
+
+std::string demo_plot_name(const demo_curve& d) {
+    const std::string stem = std::filesystem::path(d.curve->file).stem().string();
+    return d.curve->sweeps.size() > 1 ? fmt::format("fit-{}-{}.png", stem, to_string(d.fit.direction))
+                                      : fmt::format("fit-{}.png", stem);
+}
+
+record demo_document(const demo_report& r, const std::string& out_dir) {
+    record j;
+    j.set("command", "demo");
+    j.set("synthetic_data", true);
+    j.set("config", config_record(r.cfg));
+    j.set("prediction", to_records(demo_prediction_columns(), r.sweep));
+    j.set("plan", to_records(demo_plan_columns(), r.plan));
+    cell::list curves;
+    for (const demo_curve& d : r.curves) {
+        record c = to_record(demo_curve_columns(), d);
+        c.set("plot", (std::filesystem::path(out_dir) / demo_plot_name(d)).string());
+        curves.emplace_back(std::move(c));
+    }
+    j.set("curves", std::move(curves));
+    const demo_tally t = tally(r);
+    record summary;
+    summary.set("curves_compared", t.compared);
+    summary.set("kappa_within_ci", t.kappa_within);
+    j.set("summary", summary);
+    return j;
+}
+
+}  // namespace tipgap

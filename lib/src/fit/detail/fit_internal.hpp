@@ -1,0 +1,71 @@
+#pragma once
+// Internals shared by the fit_*.cpp files.
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "tipgap/fit/fit.hpp"
+
+namespace tipgap::detail {
+
+// Median of a copy of the values (n >= 1).
+double median(std::vector<double> v);
+// Median of the values, reordering them in place (n >= 1); the same value as median().
+double median_in_place(std::span<double> v);
+// Median absolute deviation about the median (n >= 1).
+double mad(const std::vector<double>& v);
+
+// Noise estimate from the far tail of a sweep given farthest point first (see estimate_noise).
+// current_far_first: the sweep's currents ordered by decreasing z, n >= 3; scratch: reused buffer.
+noise_estimate noise_from_far_first(std::span<const double> current_far_first, std::vector<double>& scratch);
+
+// Constants of the linear-model point selection (point_selection.hpp), which fit_sweep and
+// fit_sweep_fast share.
+// Without measurable noise (exact synthetic data) the weights still need a σ_I; a tiny fraction
+// of the maximum keeps their shape |I|² without affecting anything else.
+inline constexpr double noiseless_sigma_fraction = 1e-9;
+// Reweighting passes of the linear fit (weights and selection from the fitted current, which
+// removes the bias of selecting and weighting by the noisy observed current); 3 is ample since the
+// selection settles after the second.
+inline constexpr int linear_passes = 3;
+// In the reweighted passes a point must still show at least a third of the floor: at the cut
+// (fitted |I| = floor = 3σ) this drops only 2σ downward fluctuations, whose logarithm would be
+// wild.
+inline constexpr double observed_floor_fraction = 1.0 / 3.0;
+
+// Student t quantile for a two-sided interval at `confidence_level` with `dof` degrees of freedom.
+double t_quantile(double dof, double confidence_level);
+// Fills the decay-constant and barrier fields of `r` from κ (1/m), its statistical standard error
+// (1/m) and the degrees of freedom; r.calibration_uncertainty and r.confidence_level must be set.
+// t: the t quantile for dof at r.confidence_level (from t_quantile).
+void fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof, double t);
+
+// "2.00 pA", "1.50 nA": a current for messages, 3 significant digits.
+std::string format_current(double current_A);
+
+// Flat top of repeated near-equal maxima: returns the level at and above which points are
+// saturated, or 0 when there is no flat top. abs_current: |I| of the sweep; noise_A: σ_I.
+double detect_saturation(std::span<const double> abs_current, double noise_A);
+
+// Finds a jump to contact or a conductance plateau at the close end. z_m ascending; abs_current
+// matching; floor_A: noise floor; bias_V: V or NaN; contact_distance_m: m.
+contact_result detect_contact(std::span<const double> z_m, std::span<const double> abs_current, double floor_A,
+                              double bias_V, double contact_distance_m);
+
+// Offset-model fit y = a exp(-b (z - z_ref)) + c on (z_m, sI) with equal weights, started from
+// (a0, b0, c0). Fills the model-specific fields of `r` (decay constant statistics are filled by
+// the caller from b and its standard error).
+struct offset_fit {
+    double amplitude_A = 0.0, amplitude_stderr_A = 0.0;
+    double rate_per_m = 0.0, rate_stderr_per_m = 0.0;  // b = 2κ
+    double offset_A = 0.0, offset_stderr_A = 0.0;
+    double ssr_A2 = 0.0;
+    int evaluations = 0;
+    bool converged = false;
+    std::string message;
+};
+offset_fit fit_offset_model(std::span<const double> z_m, std::span<const double> signed_current_A, double z_ref_m,
+                            double a0_A, double b0_per_m, double c0_A, int max_evaluations);
+
+}  // namespace tipgap::detail

@@ -1,0 +1,311 @@
+// Fitting one sweep: point selection (noise floor, saturation, contact), the linear or offset
+// model, uncertainties with the piezo calibration folded in, and the local φ_ap(z) profile.
+#include <algorithm>
+#include <boost/math/distributions/students_t.hpp>
+#include <cmath>
+#include <fmt/format.h>
+#include <limits>
+
+#include "fit/detail/point_selection.hpp"
+#include "tipgap/core/constants.hpp"
+
+namespace tipgap {
+
+void fit_options::validate() const {
+    // "<key>: <value> is out of range; expected <range>", the format of every range error.
+    auto bad = [](const char* key, const std::string& value, const std::string& expected) {
+        throw_input(location{"", 0, 0, key}, fmt::format("{} is out of range; expected {}", value, expected));
+    };
+    auto amps = [](double v) { return fmt::format("{:g} A", v); };
+    if (!(noise_floor_A >= 0.0) || !std::isfinite(noise_floor_A))
+        bad("noise_floor_A", amps(noise_floor_A), "a current >= 0 (0 = estimate)");
+    if (!(saturation_A >= 0.0) || !std::isfinite(saturation_A))
+        bad("saturation_A", amps(saturation_A), "a current >= 0 (0 = detect)");
+    if (!(current_noise_A >= 0.0) || !std::isfinite(current_noise_A))
+        bad("current_noise_A", amps(current_noise_A), "a current >= 0 (0 = estimate)");
+    if (!(calibration_uncertainty >= 0.0 && calibration_uncertainty < 0.5))
+        bad("calibration_uncertainty", fmt::format("{:g}", calibration_uncertainty),
+            "a relative uncertainty in [0, 0.5), e.g. 0.02");
+    if (!(confidence_level > 0.0 && confidence_level < 1.0))
+        bad("confidence_level", fmt::format("{:g}", confidence_level), "a level in (0, 1), e.g. 0.95");
+    if (window_points != 0 && window_points < 4)
+        bad("window_points", fmt::format("{} points", window_points), "at least 4 points (or 0 for the default)");
+    if (!(window_m >= 0.0) || !std::isfinite(window_m))
+        bad("window_m", fmt::format("{:g} nm", window_m / 1e-9), "a length >= 0");
+    if (!(contact_distance_m > 0.0) || !std::isfinite(contact_distance_m))
+        bad("contact_distance_m", fmt::format("{:g} nm", contact_distance_m / 1e-9), "a length > 0");
+    if (max_evaluations < 10) bad("max_evaluations", fmt::format("{}", max_evaluations), "at least 10");
+    if (saturation_A > 0.0 && noise_floor_A > 0.0 && saturation_A <= noise_floor_A)
+        bad("saturation_A", amps(saturation_A), fmt::format("a saturation above the noise floor of {}", amps(noise_floor_A)));
+}
+
+double apparent_barrier_from_decay(double decay_constant_per_m) {
+    return si::hbar * si::hbar * decay_constant_per_m * decay_constant_per_m / (2.0 * si::electron_mass);
+}
+
+namespace {
+
+// Default profile window: a fifth of the used points, at least 8 (common practice, no source).
+constexpr std::size_t default_window_min = 8;
+constexpr std::size_t min_window_points = 4;
+
+// The weighted line of ln|I| over the points idx by SVD (fit_line).
+line_fit svd_line(const detail::sorted_sweep& s, std::span<const std::size_t> idx, std::span<const double> w) {
+    std::vector<double> x(idx.size()), y(idx.size());
+    for (std::size_t k = 0; k < idx.size(); ++k) {
+        x[k] = s.z[idx[k]];
+        y[k] = s.ln_abs_current[idx[k]];
+    }
+    return fit_line(x, y, w);
+}
+
+}  // namespace
+
+double detail::t_quantile(double dof, double confidence_level) {
+    boost::math::students_t dist(dof);
+    return boost::math::quantile(dist, 0.5 + 0.5 * confidence_level);
+}
+
+void detail::fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof, double t) {
+    r.decay_constant_per_m = kappa;
+    r.decay_constant_stat_stderr_per_m = kappa_stat_se;
+    // Piezo calibration: z scales by (1 ± u), κ by 1/(1 ± u), so a relative standard uncertainty u
+    // on κ, independent of the statistical one.
+    const double cal = r.calibration_uncertainty * std::abs(kappa);
+    r.decay_constant_stderr_per_m = std::hypot(kappa_stat_se, cal);
+    r.degrees_of_freedom = dof;
+    r.t_quantile = t;
+    r.decay_constant_ci_low_per_m = kappa - r.t_quantile * r.decay_constant_stderr_per_m;
+    r.decay_constant_ci_high_per_m = kappa + r.t_quantile * r.decay_constant_stderr_per_m;
+    r.apparent_barrier_J = apparent_barrier_from_decay(kappa);
+    r.apparent_barrier_stderr_J =
+        kappa != 0.0 ? 2.0 * r.apparent_barrier_J * r.decay_constant_stderr_per_m / std::abs(kappa) : 0.0;
+    // φ is monotonic in |κ|, so the κ interval maps onto a φ interval (asymmetric, never negative).
+    const double lo = r.decay_constant_ci_low_per_m, hi = r.decay_constant_ci_high_per_m;
+    r.apparent_barrier_ci_low_J = lo > 0.0 || hi < 0.0 ? apparent_barrier_from_decay(std::min(std::abs(lo), std::abs(hi))) : 0.0;
+    r.apparent_barrier_ci_high_J = apparent_barrier_from_decay(std::max(std::abs(lo), std::abs(hi)));
+    r.length_per_decade_m = kappa != 0.0 ? std::log(10.0) / (2.0 * kappa) : std::numeric_limits<double>::infinity();
+}
+
+namespace {
+
+// The φ_ap(z) profile: the weighted line over each window of consecutive used points.
+std::vector<profile_point> local_profile(const fit_workspace& ws, const fit_options& opt, const contact_result& contact,
+                                         std::vector<std::string>& warnings) {
+    const std::vector<double>& z = ws.sweep.z;
+    const std::span<const std::size_t> used(ws.used);
+    const std::span<const double> w(ws.weights);
+    std::vector<profile_point> out;
+    const std::size_t n = used.size();
+    auto one = [&](std::size_t begin, std::size_t end) {
+        const std::span<const std::size_t> idx = used.subspan(begin, end - begin);
+        // A window whose points share one z (repeated piezo steps) has no slope: skip it rather
+        // than report an infinite one.
+        if (!(z[idx.back()] > z[idx.front()])) return;
+        const line_fit l = svd_line(ws.sweep, idx, w.subspan(begin, end - begin));
+        profile_point p;
+        double zs = 0.0;
+        for (std::size_t i : idx) zs += z[i];
+        p.z_m = zs / static_cast<double>(idx.size());
+        p.gap_m = contact.kind != contact_kind::none ? p.z_m + contact.gap_offset_m
+                                                     : std::numeric_limits<double>::quiet_NaN();
+        p.decay_constant_per_m = -0.5 * l.slope;
+        p.decay_constant_stderr_per_m = 0.5 * l.slope_stderr;
+        p.apparent_barrier_J = apparent_barrier_from_decay(p.decay_constant_per_m);
+        p.apparent_barrier_stderr_J = p.decay_constant_per_m != 0.0
+                                          ? 2.0 * p.apparent_barrier_J * p.decay_constant_stderr_per_m /
+                                                std::abs(p.decay_constant_per_m)
+                                          : 0.0;
+        p.points = idx.size();
+        out.push_back(p);
+    };
+    if (opt.window_points == 0 && opt.window_m > 0.0) {
+        for (std::size_t b = 0; b < n; ++b) {
+            std::size_t e = b;
+            while (e < n && z[used[e]] <= z[used[b]] + opt.window_m) ++e;
+            if (e - b >= min_window_points) one(b, e);
+            if (e == n) break;
+        }
+        if (out.empty()) warnings.push_back(fmt::format("no profile: a {:.3g} nm window holds fewer than {} used points",
+                                                        opt.window_m / 1e-9, min_window_points));
+        return out;
+    }
+    const std::size_t window = opt.window_points > 0 ? opt.window_points : std::max(default_window_min, n / 5);
+    if (window > n) {
+        warnings.push_back(fmt::format("no profile: the window of {} points is longer than the {} points used", window, n));
+        return out;
+    }
+    for (std::size_t b = 0; b + window <= n; ++b) one(b, b + window);
+    return out;
+}
+
+// fit_sweep's input errors for a linear selection that did not give a line.
+void throw_unless_fitted(detail::linear_status status, const fit_workspace& ws, const detail::point_selection& sel,
+                         const location& where) {
+    const std::vector<std::size_t>& used = ws.used;
+    switch (status) {
+        case detail::linear_status::fitted: return;
+        case detail::linear_status::too_few_points:
+            throw_input(where, fmt::format("only {} of {} points lie above the noise floor of {}{}{}; a fit needs at "
+                                           "least 3",
+                                           used.size(), ws.sweep.z.size(), detail::format_current(sel.noise_floor_A),
+                                           sel.saturation_A > 0.0 ? " and below the saturation at " : "",
+                                           sel.saturation_A > 0.0 ? detail::format_current(sel.saturation_A) : ""));
+        case detail::linear_status::no_spread_in_z:
+            throw_input(where, fmt::format("all {} points used for the fit have the same z ({:g} nm); expected a curve "
+                                           "over a range of z",
+                                           used.size(), ws.sweep.z[used.front()] / 1e-9));
+        case detail::linear_status::singular:
+            throw_input(where, fmt::format("the straight-line fit of ln|I| against z over {} points is singular; "
+                                           "expected points that spread over z with comparable currents",
+                                           used.size()));
+    }
+}
+
+// The offset model over every usable point (outside contact, below saturation, zero current
+// included), started from the linear line.
+void record_offset_fit(fit_result& r, const fit_workspace& ws, const detail::point_selection& sel, const line_fit& line,
+                       const fit_options& opt, const location& where) {
+    const detail::sorted_sweep& sw = ws.sweep;
+    std::vector<double> zz, yy;
+    double sign_sum = 0.0;
+    r.used_rows.clear();
+    for (std::size_t i = 0; i < sw.z.size(); ++i) {
+        if (sel.usable_by_offset(i, sw.abs_current[i])) {
+            r.used_rows.push_back(sw.order[i]);
+            zz.push_back(sw.z[i]);
+            yy.push_back(sw.current[i]);
+            sign_sum += sw.current[i];
+        }
+    }
+    if (zz.size() < 4) {
+        throw_input(where, fmt::format("only {} points lie below saturation and outside contact; the offset "
+                                       "model needs at least 4",
+                                       zz.size()));
+    }
+    // Fit the current with the sign of the signal so that a is positive.
+    const double s = sign_sum < 0.0 ? -1.0 : 1.0;
+    for (double& v : yy) v *= s;
+    const double z_ref = zz.front();
+    const double a0 = std::exp(line.intercept + line.slope * z_ref);
+    const double c0 = sel.noise.floor_reached ? s * sel.noise.tail_offset_A : 0.0;
+    const detail::offset_fit of = detail::fit_offset_model(zz, yy, z_ref, a0, -line.slope, c0, opt.max_evaluations);
+    r.z_ref_m = z_ref;
+    r.iterations = of.evaluations;
+    r.status = of.converged ? fit_status::converged : fit_status::not_converged;
+    r.message = of.message;
+    if (!of.converged) r.warnings.push_back("the offset model did not converge: " + of.message);
+    r.points_used = zz.size();
+    r.prefactor_A = of.amplitude_A;
+    r.prefactor_stderr_A = of.amplitude_stderr_A;
+    r.offset_A = s * of.offset_A;
+    r.offset_stderr_A = of.offset_stderr_A;
+    double mean = 0.0;
+    for (double v : yy) mean += v;
+    mean /= static_cast<double>(yy.size());
+    double sst = 0.0, ss_ln = 0.0;
+    std::size_t n_ln = 0;
+    for (std::size_t k = 0; k < yy.size(); ++k) {
+        sst += (yy[k] - mean) * (yy[k] - mean);
+        const double m = of.amplitude_A * std::exp(-of.rate_per_m * (zz[k] - z_ref)) + of.offset_A;
+        if (yy[k] > 0.0 && m > 0.0) {
+            ss_ln += std::pow(std::log(yy[k]) - std::log(m), 2);
+            ++n_ln;
+        }
+    }
+    r.r_squared = sst > 0.0 ? 1.0 - of.ssr_A2 / sst : 1.0;
+    r.residual_rms_A = std::sqrt(of.ssr_A2 / static_cast<double>(yy.size()));
+    r.residual_rms_ln = n_ln > 0 ? std::sqrt(ss_ln / static_cast<double>(n_ln)) : 0.0;
+    const double dof = static_cast<double>(zz.size()) - 3.0;
+    detail::fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, detail::t_quantile(dof, r.confidence_level));
+}
+
+// Warnings a careful reader wants next to the numbers: saturation, contact, a short current
+// range, a decay constant of the wrong sign.
+void add_warnings(fit_result& r, const fit_options& opt) {
+    if (r.saturation_detected) {
+        r.warnings.push_back(fmt::format("flat top detected: {} points at or above {} treated as saturated and not used",
+                                         r.points_saturated, detail::format_current(r.saturation_A)));
+    } else if (r.points_saturated > 0) {
+        r.warnings.push_back(fmt::format("{} points at or above the saturation of {} were not used", r.points_saturated,
+                                         detail::format_current(r.saturation_A)));
+    }
+    if (r.contact.kind != contact_kind::none) {
+        r.warnings.push_back(fmt::format(
+            "point contact ({}) at z = {:.4g} nm{}: {} close-end points not used; gap = z {} {:.4g} nm for a "
+            "contact distance of {:.3g} nm",
+            to_string(r.contact.kind), r.contact.z_m / 1e-9,
+            std::isfinite(r.contact.conductance_G0) ? fmt::format(" (G = {:.3g} G0)", r.contact.conductance_G0)
+                                                    : std::string(" (no bias in the metadata, conductance unknown)"),
+            r.contact.points_in_contact, r.contact.gap_offset_m < 0 ? "-" : "+", std::abs(r.contact.gap_offset_m) / 1e-9,
+            opt.contact_distance_m / 1e-9));
+    }
+    if (r.current_decades_used < 1.0) {
+        r.warnings.push_back(
+            fmt::format("the used points span only {:.2g} decades of current; the decay constant is poorly constrained",
+                        r.current_decades_used));
+    }
+    if (r.decay_constant_per_m <= 0.0) {
+        r.warnings.push_back("|I| does not decrease with z (decay constant <= 0): check that z increases as the tip "
+                             "retracts");
+    }
+}
+
+}  // namespace
+
+fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options& opt, const location& where) {
+    opt.validate();
+    const std::size_t n = sweep.z_m.size();
+    if (n < 3) throw_input(where, fmt::format("the sweep has only {} points; a fit needs at least 3", n));
+
+    fit_result r;
+    r.model = opt.model;
+    r.direction = sweep.direction;
+    r.points_total = n;
+    r.confidence_level = opt.confidence_level;
+    r.calibration_uncertainty = opt.calibration_uncertainty;
+
+    // The selection of fit_sweep_fast, on the sweep sorted by z (closest first).
+    fit_workspace ws;
+    ws.sweep.assign(sweep.z_m, sweep.current_A);
+    const detail::point_selection selection = detail::select_points(ws, bias_V, opt);
+    selection.record(r);
+    if (selection.noiseless) {
+        r.warnings.push_back("the far tail shows no current noise; the weights assume a noise of 1e-9 of the "
+                             "maximum current");
+    }
+    // The linear model (also the starting point of the offset model).
+    const detail::linear_points linear = detail::fit_linear_points(ws, selection, svd_line);
+    throw_unless_fitted(linear.status, ws, selection, where);
+    r.z_ref_m = ws.sweep.z[ws.used.front()];
+    r.line = linear.line;
+    for (std::size_t i : ws.used) r.used_rows.push_back(ws.sweep.order[i]);
+
+    if (opt.model == fit_model::linear) {
+        detail::record_linear_fit(r, ws, linear.line);
+        if (r.points_below_floor > 0) {
+            r.warnings.push_back(fmt::format("{} of {} points lie below the noise floor of {} and were not used",
+                                             r.points_below_floor, n, detail::format_current(r.noise_floor_A)));
+        }
+    } else {
+        // The offset model uses every point outside contact and saturation.
+        record_offset_fit(r, ws, selection, linear.line, opt, where);
+        r.current_decades_used = detail::current_decades(ws);
+    }
+    add_warnings(r, opt);
+    r.profile = local_profile(ws, opt, r.contact, r.warnings);
+    return r;
+}
+
+std::vector<fit_result> fit_curve(const measured_curve& curve, const fit_options& options) {
+    std::vector<fit_result> out;
+    const double bias = curve.metadata.bias_V ? *curve.metadata.bias_V : std::numeric_limits<double>::quiet_NaN();
+    for (const curve_sweep& s : curve.sweeps) {
+        location where{curve.file, 0, 0, ""};
+        if (curve.sweeps.size() > 1) where.key = fmt::format("{} sweep from row {}", to_string(s.direction), s.first_row + 1);
+        out.push_back(fit_sweep(s, bias, options, where));
+    }
+    return out;
+}
+
+}  // namespace tipgap

@@ -1,0 +1,31 @@
+// Messages about data rows shared by the curve and grid readers; see csv_errors.hpp.
+#include "io/detail/csv_errors.hpp"
+
+#include <fmt/format.h>
+
+namespace tipgap::detail {
+
+void throw_bad_number(const location& where, std::string_view column_name, std::string_view cell, number_status status) {
+    switch (status) {
+        case number_status::empty:
+            throw_input(where, fmt::format("empty cell in column '{}'; expected a number", column_name));
+        case number_status::not_finite:
+            throw_input(where, fmt::format("{} in column '{}' is not a finite number; expected a finite value",
+                                           quote_input(cell), column_name));
+        case number_status::out_of_range:
+            throw_input(where, fmt::format("{} in column '{}' is outside the range of a double; expected a magnitude of 0 "
+                                           "or between about 1e-308 and 1e308",
+                                           quote_input(cell), column_name));
+        default:
+            throw_input(where, fmt::format("{} in column '{}' is not a number; expected a plain number such as 0.25 (the "
+                                           "unit goes in the header)",
+                                           quote_input(cell), column_name));
+    }
+}
+
+void throw_cell_count(const location& where, int cells, int header_line, std::size_t columns) {
+    throw_input(where, fmt::format("the row has {} cell{}; the header on line {} has {} columns", cells,
+                                   cells == 1 ? "" : "s", header_line, columns));
+}
+
+}  // namespace tipgap::detail
