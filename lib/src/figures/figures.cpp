@@ -5,6 +5,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "figures/detail/current_unit.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -24,10 +25,19 @@ plot::axis ax(const std::string& label, plot::axis_scale scale = plot::axis_scal
 
 // A current unit that keeps the numbers of a linear axis between 0.1 and 1000.
 std::pair<double, const char*> current_unit(double max_abs_A) {
-    if (max_abs_A < 1e-9) return {1e12, "pA"};
-    if (max_abs_A < 1e-6) return {1e9, "nA"};
-    if (max_abs_A < 1e-3) return {1e6, "µA"};
-    return {1e3, "mA"};
+    const auto u = figures_detail::current_unit(max_abs_A);
+    return {u.per_A, u.name};
+}
+
+// A log current axis starts at the floor when some current shown lies below it (points below are
+// clipped at the frame); otherwise the data set the range.
+void clip_at_floor(plot::xy_panel& p, double floor_A) {
+    for (const plot::series& s : p.lines)
+        for (double y : s.y)
+            if (y > 0 && y < floor_A) {
+                p.y_axis.min = floor_A;
+                return;
+            }
 }
 
 // "1 nA", "250 pA": a current with a prefix for labels.
@@ -74,7 +84,6 @@ plot::xy_panel current_gap_panel(const std::string& title) {
     p.title = title;
     p.x_axis = ax("gap s [nm]");
     p.y_axis = ax("|current| [A]", plot::axis_scale::log10);
-    p.legend = plot::legend_position::top_right;
     return p;
 }
 
@@ -83,7 +92,6 @@ plot::xy_panel barrier_gap_panel(const std::string& title) {
     p.title = title;
     p.x_axis = ax("gap s [nm]");
     p.y_axis = ax("apparent barrier height φ_ap [eV]");
-    p.legend = plot::legend_position::bottom_right;
     return p;
 }
 
@@ -103,7 +111,6 @@ plot::xy_panel current_bias_panel(const config& c, double gap_m, double v_max, i
     p.y_axis = ax(fmt::format("current I [{}]", unit));
     p.lines = {s};
     p.references = {{plot::orientation::horizontal, 0.0, ""}, {plot::orientation::vertical, 0.0, ""}};
-    p.legend = plot::legend_position::top_left;
     return p;
 }
 
@@ -111,53 +118,70 @@ plot::reference_line contact_line() {
     return {plot::orientation::vertical, near_contact_gap_m * 1e9, "near contact (0.35 nm)"};
 }
 
+// The z(V) trace (one line per setpoint current) or the ladder (one line per bias).
+plot::xy_panel trace_panel(const std::vector<plan_point>& points, bool many_bias) {
+    plot::xy_panel t;
+    t.x_axis = many_bias ? ax("sample bias V [V]") : ax("current setpoint |I| [A]", plot::axis_scale::log10);
+    t.y_axis = ax("planned gap s [nm]");
+    std::vector<double> keys;
+    for (const auto& p : points) {
+        double k = many_bias ? p.setpoint_A : p.bias_V;
+        if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
+    }
+    for (double k : keys) {
+        plot::series s;
+        s.style = plot::draw_style::line_and_markers;
+        s.label = many_bias ? "I = " + current_text(std::abs(k)) : fmt::format("V = {:g} V", k);
+        for (const auto& p : points) {
+            if ((many_bias ? p.setpoint_A : p.bias_V) != k) continue;
+            s.x.push_back(many_bias ? p.bias_V : std::abs(p.setpoint_A));
+            s.y.push_back(p.solution.gap_m * 1e9);  // NaN (unreachable) leaves a gap in the line
+        }
+        t.lines.push_back(s);
+    }
+    t.title = many_bias ? "Constant-current trace z(V)" : "Gap against setpoint current";
+    return t;
+}
+
+// The reachable point the side panels are drawn at: nearest to the asked bias, else the first.
+const plan_point* side_point(const std::vector<plan_point>& points, const std::optional<double>& bias_V) {
+    const plan_point* best = nullptr;
+    for (const auto& p : points) {
+        if (!p.reachable()) continue;
+        if (!best) best = &p;
+        if (!bias_V) break;
+        if (std::abs(p.bias_V - *bias_V) < std::abs(best->bias_V - *bias_V)) best = &p;
+    }
+    return best;
+}
+
+std::string setup_title(const char* what, const config& c) {
+    return fmt::format("{}: {} tip, {} sample, {} geometry (model)", what,
+                       c.model.tip.material.empty() ? "custom" : c.model.tip.material,
+                       c.model.sample.material.empty() ? "custom" : c.model.sample.material, to_string(c.geometry.kind));
+}
+
 }  // namespace
 
-plot::figure plan_figure(const config& c, const std::vector<plan_point>& points, int threads) {
-    const plan_point* first = nullptr;
-    for (const auto& p : points)
-        if (p.reachable()) {
-            first = &p;
-            break;
-        }
+void figure_options::validate() const {
+    if (!(current_floor_A > 0) || !std::isfinite(current_floor_A))
+        throw_input(location{"", 0, 0, "current_floor"}, fmt::format("must be a current > 0 A; got {:g} A", current_floor_A));
+    if (side_bias_V && !std::isfinite(*side_bias_V)) throw_input(location{"", 0, 0, "plot_bias"}, "must be a finite bias");
+}
+
+plot::figure plan_figure(const config& c, const std::vector<plan_point>& points, int threads, const figure_options& o) {
+    o.validate();
+    const plan_point* first = side_point(points, o.side_bias_V);
     if (!first) throw error(error_kind::no_answer, "no reachable setpoint to plot");
     plot::figure f;
-    f.title = fmt::format("Setpoint plan: {} tip, {} sample, {} geometry (model)",
-                          c.model.tip.material.empty() ? "custom" : c.model.tip.material,
-                          c.model.sample.material.empty() ? "custom" : c.model.sample.material,
-                          to_string(c.geometry.kind));
+    f.title = setup_title("Setpoint plan", c);
 
-    // The trace or the ladder, when there is more than one point.
     bool many_bias = false, many_current = false;
     for (const auto& p : points) {
         many_bias = many_bias || p.bias_V != points.front().bias_V;
         many_current = many_current || p.setpoint_A != points.front().setpoint_A;
     }
-    if (many_bias || many_current) {
-        plot::xy_panel t;
-        t.x_axis = many_bias ? ax("sample bias V [V]") : ax("current setpoint |I| [A]", plot::axis_scale::log10);
-        t.y_axis = ax("planned gap s [nm]");
-        // One line per setpoint current (trace) or per bias (ladder).
-        std::vector<double> keys;
-        for (const auto& p : points) {
-            double k = many_bias ? p.setpoint_A : p.bias_V;
-            if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
-        }
-        for (double k : keys) {
-            plot::series s;
-            s.style = plot::draw_style::line_and_markers;
-            s.label = many_bias ? "I = " + current_text(std::abs(k)) : fmt::format("V = {:g} V", k);
-            for (const auto& p : points) {
-                if ((many_bias ? p.setpoint_A : p.bias_V) != k) continue;
-                s.x.push_back(many_bias ? p.bias_V : std::abs(p.setpoint_A));
-                s.y.push_back(p.solution.gap_m * 1e9);  // NaN (unreachable) leaves a gap in the line
-            }
-            t.lines.push_back(s);
-        }
-        t.title = many_bias ? "Constant-current trace z(V)" : "Gap against setpoint current";
-        t.legend = plot::legend_position::top_left;
-        f.panels.push_back(t);
-    }
+    if (many_bias || many_current) f.panels.push_back(trace_panel(points, many_bias));
 
     const double s0 = first->solution.gap_m, V0 = first->bias_V;
     double lo = std::max(0.15e-9, s0 - 0.3e-9), hi = s0 + 0.6e-9;
@@ -178,6 +202,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         }
     ig.lines.push_back(marks);
     ig.references.push_back(contact_line());
+    clip_at_floor(ig, o.current_floor_A);
     f.panels.push_back(ig);
 
     plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
@@ -196,14 +221,12 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
 }
 
 plot::figure predict_figure(const config& c, const std::vector<double>& gaps, const std::vector<double>& biases,
-                            const std::vector<prediction>& r, int threads) {
+                            const std::vector<prediction>& r, int threads, const figure_options& o) {
+    o.validate();
     if (r.size() != gaps.size() * biases.size() || r.empty())
         throw_input({}, "predict_figure: the results do not match the gap and bias lists");
     plot::figure f;
-    f.title = fmt::format("Prediction: {} tip, {} sample, {} geometry (model)",
-                          c.model.tip.material.empty() ? "custom" : c.model.tip.material,
-                          c.model.sample.material.empty() ? "custom" : c.model.sample.material,
-                          to_string(c.geometry.kind));
+    f.title = setup_title("Prediction", c);
     const std::size_t ng = gaps.size(), nb = biases.size();
     auto at = [&](std::size_t ib, std::size_t ig) -> const prediction& { return r[ib * ng + ig]; };
     auto ascending = [](const std::vector<double>& v) {
@@ -219,12 +242,19 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         m.y_axis = ax("sample bias V [V]");
         for (double s : gaps) m.x.push_back(s * 1e9);
         m.y = biases;
+        double top = 0.0;
+        for (const prediction& q : r) top = std::max(top, std::abs(q.current_A));
+        const auto unit = figures_detail::current_unit(top);
+        bool below_floor = false;
         for (std::size_t ib = 0; ib < nb; ++ib)
             for (std::size_t ig = 0; ig < ng; ++ig) {
                 const double I = std::abs(at(ib, ig).current_A);
-                m.z.push_back(I > 0 ? std::log10(I) : std::numeric_limits<double>::quiet_NaN());
+                below_floor = below_floor || (I > 0 && I < o.current_floor_A);
+                m.z.push_back(I > 0 ? std::log10(I * unit.per_A) : std::numeric_limits<double>::quiet_NaN());
             }
-        m.colour_bar_label = "log₁₀ (|I| / 1 A)";
+        // Below the floor nothing is measured: those cells take the darkest colour.
+        if (below_floor) m.z_min = std::log10(o.current_floor_A * unit.per_A);
+        m.colour_bar_label = fmt::format("log₁₀(|I| / 1 {})", unit.name);
         f.panels.push_back(m);
     }
     if (ng > 1) {
@@ -249,6 +279,7 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
             bg.lines.push_back(b);
         }
         ig.references.push_back(contact_line());
+        clip_at_floor(ig, o.current_floor_A);
         f.panels.push_back(ig);
         f.panels.push_back(bg);
     }
@@ -281,11 +312,8 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
             }
             ib_panel.lines.push_back(s);
         }
-        if (log_axis) ib_panel.legend = plot::legend_position::bottom_right;
-        if (!log_axis) {
-            ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
-            ib_panel.legend = plot::legend_position::top_left;
-        }
+        if (log_axis) clip_at_floor(ib_panel, o.current_floor_A);
+        else ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
         f.panels.push_back(ib_panel);
     }
     if (ng == 1 && nb == 1) {
@@ -296,6 +324,7 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
         ig.lines.push_back({{s0 * 1e9}, {std::abs(r[0].current_A)}, "this point", plot::draw_style::markers, 1});
         ig.references.push_back(contact_line());
+        clip_at_floor(ig, o.current_floor_A);
         plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
         bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
         f.panels.push_back(ig);
