@@ -29,22 +29,27 @@ std::pair<double, const char*> current_unit(double max_abs_A) {
     return {u.per_A, u.name};
 }
 
-// A log current axis starts at the floor when some current shown lies below it (points below are
-// clipped at the frame); otherwise the data set the range.
-void clip_at_floor(plot::xy_panel& p, double floor_A) {
-    for (const plot::series& s : p.lines)
-        for (double y : s.y)
-            if (y > 0 && y < floor_A) {
-                p.y_axis.min = floor_A;
-                return;
-            }
-}
-
 // "1 nA", "250 pA": a current with a prefix for labels.
 std::string current_text(double A) {
+    if (A != 0.0 && std::abs(A) < 0.9999999e-12) return fmt::format("{:g} fA", A * 1e15);  // floors
     auto [scale, unit] = current_unit(std::abs(A) * 1.0000001);
     if (std::abs(A) * scale >= 1000) return fmt::format("{:g} A", A);
     return fmt::format("{:g} {}", A * scale, unit);
+}
+
+// A log current axis starts at the floor when some current shown lies below it (points below are
+// clipped at the frame); otherwise the data set the range.
+// A series lying wholly below the floor says so in its legend entry, as it draws nothing.
+void clip_at_floor(plot::xy_panel& p, double floor_A) {
+    for (plot::series& s : p.lines) {
+        bool below = false, above = false;
+        for (double y : s.y) {
+            below = below || (y > 0 && y < floor_A);
+            above = above || y >= floor_A;
+        }
+        if (below) p.y_axis.min = floor_A;
+        if (below && !above && !s.label.empty()) s.label += fmt::format(" (below {})", current_text(floor_A));
+    }
 }
 
 std::vector<double> linspace(double a, double b, int n) {
@@ -192,7 +197,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         }
     const gap_curve g = gap_dependence(c, V0, lo, hi, threads);
 
-    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
+    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:.4g} V", V0));
     ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
     plot::series marks{{}, {}, "planned setpoints", plot::draw_style::markers, 1};
     for (const auto& p : points)
@@ -205,7 +210,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
     clip_at_floor(ig, o.current_floor_A);
     f.panels.push_back(ig);
 
-    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
+    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:.4g} V", V0));
     bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
     bg.references.push_back(contact_line());
     bg.references.push_back({plot::orientation::horizontal,
@@ -320,12 +325,12 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         // One point: its neighbourhood in gap and bias.
         const double s0 = gaps[0], V0 = biases[0];
         const gap_curve g = gap_dependence(c, V0 == 0.0 ? 1e-3 : V0, std::max(0.15e-9, s0 - 0.3e-9), s0 + 0.6e-9, threads);
-        plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
+        plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:.4g} V", V0));
         ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
         ig.lines.push_back({{s0 * 1e9}, {std::abs(r[0].current_A)}, "this point", plot::draw_style::markers, 1});
         ig.references.push_back(contact_line());
         clip_at_floor(ig, o.current_floor_A);
-        plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
+        plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:.4g} V", V0));
         bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
         f.panels.push_back(ig);
         f.panels.push_back(bg);

@@ -76,14 +76,21 @@ std::string box_options(const axis& a, double span, bool y) {
     return o;
 }
 
+double tick_step(double span) {
+    span = std::abs(span);
+    if (!(span > 0) || !std::isfinite(span)) return 0.0;
+    // 1, 2 or 5 times a power of ten, giving four to eight ticks (common practice, no source).
+    const double raw = span / 5.0, mag = std::pow(10.0, std::floor(std::log10(raw))), norm = raw / mag;
+    return (norm < 1.5 ? 1.0 : norm < 3.0 ? 2.0 : norm < 7.0 ? 5.0 : 10.0) * mag;
+}
+
 std::string tick_label(double value, double span) {
-    // PLplot picks about 4..8 ticks: a tenth of the span is finer than any tick step, so its
-    // leading digit is the last one that can differ between neighbouring labels.
-    const double step = std::abs(span) / 10.0;
-    if (!(step > 0) || !std::isfinite(step)) return fmt::format("{:g}", value);
-    if (std::abs(value) < 1e-9 * std::abs(span)) value = 0.0;  // no "-0" or "1e-17" at zero
+    const double step = tick_step(span);
+    if (!(step > 0)) return fmt::format("{:g}", value);
+    if (std::abs(value) < 1e-6 * step) value = 0.0;  // no "-0" or "1e-17" at zero
     if (std::abs(value) >= 1e6) return fmt::format("{:.6g}", value);
-    const int decimals = std::clamp(static_cast<int>(-std::floor(std::log10(step))), 0, 12);
+    // The step's last significant digit is the last one that differs between neighbouring labels.
+    const int decimals = std::clamp(static_cast<int>(-std::floor(std::log10(step) + 1e-9)), 0, 12);
     return fmt::format("{:.{}f}", value, decimals);
 }
 
@@ -111,7 +118,9 @@ void draw_grid(plstream& pls, const axis& x, const axis& y) {
     pls.col0(ci_grid);
     pls.width(0.6);
     pls.lsty(1);
-    pls.box(x.scale == axis_scale::log10 ? "gl" : "g", 0, 0, y.scale == axis_scale::log10 ? "gl" : "g", 0, 0);
+    const window_spans w = current_spans(pls);
+    const bool lx = x.scale == axis_scale::log10, ly = y.scale == axis_scale::log10;
+    pls.box(lx ? "gl" : "g", lx ? 0 : tick_step(w.x), 0, ly ? "gl" : "g", ly ? 0 : tick_step(w.y), 0);
 }
 
 void draw_frame(plstream& pls, const std::string& title, const axis& x, const axis& y) {
@@ -120,7 +129,9 @@ void draw_frame(plstream& pls, const std::string& title, const axis& x, const ax
     pls.lsty(1);
     window_spans spans = current_spans(pls);
     pls.slabelfunc(label_callback, &spans);
-    pls.box(box_options(x, spans.x, false).c_str(), 0, 0, box_options(y, spans.y, true).c_str(), 0, 0);
+    const bool lx = x.scale == axis_scale::log10, ly = y.scale == axis_scale::log10;
+    pls.box(box_options(x, spans.x, false).c_str(), lx ? 0 : tick_step(spans.x), 0, box_options(y, spans.y, true).c_str(),
+            ly ? 0 : tick_step(spans.y), 0);
     pls.slabelfunc(nullptr, nullptr);
     pls.mtex("b", 3.2, 0.5, 0.5, plplot_text(x.label).c_str());
     pls.mtex("l", 6.2, 0.5, 0.5, plplot_text(y.label).c_str());

@@ -221,7 +221,8 @@ xy_layout layout_xy(const xy_panel& p, double plot_width_mm, double plot_height_
     out.corner = p.legend;
     if (out.legend.empty() || p.legend == legend_position::none) return out;
     const legend_box box = legend_size(out.legend, text_height_mm);
-    const double w = (box.width_mm + box.inset_mm) / plot_width_mm, h = (box.height_mm + box.inset_mm) / plot_height_mm;
+    // Twice the inset: the box keeps that much clear of the data on its open sides too.
+    const double w = (box.width_mm + 2 * box.inset_mm) / plot_width_mm, h = (box.height_mm + 2 * box.inset_mm) / plot_height_mm;
     // An explicit y max stays: the user asked for that range.
     const legend_placement where = place_legend(drawn_points(p, out.x, out.y), out.x, out.y, w, h, p.legend);
     out.corner = where.corner;

@@ -51,8 +51,12 @@ void draw_frame(plstream& pls, const std::string& title, const axis& x, const ax
 // vertical axis. Exposed for tests.
 std::string box_options(const axis& a, double span, bool y);
 
-// A plain-decimal tick label for `value` on a linear axis spanning `span`: enough decimals to tell
-// ticks apart, no exponent, no "-0".
+// The tick step of a linear axis spanning `span` plot units: 1, 2 or 5 times a power of ten, four
+// to eight ticks; 0 for an empty or non-finite span.
+double tick_step(double span);
+
+// A plain-decimal tick label for `value` on a linear axis spanning `span`: the decimals of the
+// tick step, no exponent, no "-0".
 std::string tick_label(double value, double span);
 
 // One legend entry: a line sample (with or without a marker), a filled box, or text alone.

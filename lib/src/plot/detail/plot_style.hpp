@@ -42,9 +42,9 @@ inline constexpr rgb no_value_hatch{128, 128, 128};
 inline constexpr rgb bar_fill{150, 172, 196};
 inline constexpr rgb bar_edge{52, 70, 96};
 inline constexpr rgb legend_frame{178, 178, 184};
-// A grey band: fill between the grid's grey and the tints, edges as dark as the reference lines'
-// lighter half, so the band reads as a band in colour and in grey.
-inline constexpr rgb band_grey{208, 208, 212};
+// A grey band: fill lighter than every tint (grey level 232 against about 212), edges darker than
+// the grid, so the band and a tinted band inside it stay apart in colour and in grey.
+inline constexpr rgb band_grey{232, 232, 236};
 inline constexpr rgb band_edge{140, 140, 146};
 
 // cmap0 slots.
