@@ -1,6 +1,7 @@
 // The colour-map panel: cells coloured by value, NaN cells hatched grey, a colour bar.
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <fmt/format.h>
 #include <limits>
 
@@ -136,7 +137,8 @@ void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
         PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
         const std::string label = plplot_text(p.colour_bar_label);
         const char* labels[1] = {label.c_str()};
-        const char* axis_opts[1] = {"bcmstv"};
+        // 'o': plain-decimal labels from tick_label, never PLplot's "(x10ⁿ)" above the bar.
+        const char* axis_opts[1] = {"bcmstvo"};
         PLFLT ticks[1] = {0.0};
         PLINT sub_ticks[1] = {0};
         PLFLT values[2] = {lo, hi};
@@ -144,10 +146,17 @@ void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
         PLINT n_values[1] = {2};
         pls.col0(ci_ink);
         pls.width(frame_width);
+        double span = hi - lo;
+        pls.slabelfunc(
+            [](PLINT, PLFLT value, char* label, PLINT length, PLPointer data) {
+                std::snprintf(label, static_cast<std::size_t>(length), "%s", tick_label(value, *static_cast<double*>(data)).c_str());
+            },
+            &span);
         pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
                      PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
                      ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
                      sub_ticks, n_values, value_rows);
+        pls.slabelfunc(nullptr, nullptr);
     }
 
     // A key for the hatch, only when some cells have no value: a swatch at the top right, above
