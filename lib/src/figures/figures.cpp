@@ -166,6 +166,68 @@ std::string setup_title(const char* what, const config& c) {
                        c.model.sample.material.empty() ? "custom" : c.model.sample.material, to_string(c.geometry.kind));
 }
 
+// log10 |I| over the (gap, bias) grid in the data's unit; cells below the floor take the darkest
+// colour, as nothing is measured there.
+plot::colour_map_panel current_map_panel(const std::vector<double>& gaps, const std::vector<double>& biases,
+                                         const std::vector<prediction>& r, const figure_options& o) {
+    plot::colour_map_panel m;
+    m.title = "log₁₀ |I| over gap and bias";
+    m.x_axis = ax("gap s [nm]");
+    m.y_axis = ax("sample bias V [V]");
+    for (double s : gaps) m.x.push_back(s * 1e9);
+    m.y = biases;
+    double top = 0.0;
+    for (const prediction& q : r) top = std::max(top, std::abs(q.current_A));
+    const auto unit = figures_detail::current_unit(top);
+    bool below_floor = false;
+    for (const prediction& q : r) {  // bias outer, gap inner: the map's row-major order
+        const double I = std::abs(q.current_A);
+        below_floor = below_floor || (I > 0 && I < o.current_floor_A);
+        m.z.push_back(I > 0 ? std::log10(I * unit.per_A) : std::numeric_limits<double>::quiet_NaN());
+    }
+    if (below_floor) m.z_min = std::log10(o.current_floor_A * unit.per_A);
+    m.colour_bar_label = fmt::format("log₁₀(|I| / 1 {})", unit.name);
+    return m;
+}
+
+// I(V) at up to five gaps spread over the list (predict's layout: results[ib * ng + ig]).
+plot::xy_panel current_bias_grid_panel(const std::vector<double>& gaps, const std::vector<double>& biases,
+                                       const std::vector<prediction>& r, const figure_options& o) {
+    const std::size_t ng = gaps.size(), nb = biases.size();
+    auto at = [&](std::size_t ib, std::size_t ig) -> const prediction& { return r[ib * ng + ig]; };
+    plot::xy_panel ib_panel;
+    ib_panel.title = "Current against bias";
+    ib_panel.x_axis = ax("sample bias V [V]");
+    double m = 0, m_small = std::numeric_limits<double>::infinity();
+    const std::size_t lines = std::min<std::size_t>(ng, 5);
+    std::vector<std::size_t> picked;
+    for (std::size_t l = 0; l < lines; ++l) picked.push_back(lines == 1 ? 0 : l * (ng - 1) / (lines - 1));
+    for (std::size_t ig : picked) {
+        double mi = 0;
+        for (std::size_t k = 0; k < nb; ++k) mi = std::max(mi, std::abs(at(k, ig).current_A));
+        m = std::max(m, mi);
+        m_small = std::min(m_small, mi);
+    }
+    // Curves more than two decades apart vanish on a linear axis: then |I| on a log axis.
+    const bool log_axis = m_small > 0 && m / m_small > 100.0;
+    auto [scale, unit] = current_unit(m);
+    ib_panel.y_axis = log_axis ? ax("|current| [A]", plot::axis_scale::log10) : ax(fmt::format("current I [{}]", unit));
+    for (std::size_t l = 0; l < picked.size(); ++l) {
+        const std::size_t ig = picked[l];
+        plot::series s;
+        s.label = fmt::format("s = {:g} nm", gaps[ig] * 1e9);
+        s.style = nb > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
+        for (std::size_t k = 0; k < nb; ++k) {
+            s.x.push_back(biases[k]);
+            s.y.push_back(log_axis ? std::abs(at(k, ig).current_A) : at(k, ig).current_A * scale);
+        }
+        ib_panel.lines.push_back(s);
+    }
+    if (log_axis) clip_at_floor(ib_panel, o.current_floor_A);
+    else ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
+    return ib_panel;
+}
+
 }  // namespace
 
 void figure_options::validate() const {
@@ -240,28 +302,7 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         return true;
     };
 
-    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) {
-        plot::colour_map_panel m;
-        m.title = "log₁₀ |I| over gap and bias";
-        m.x_axis = ax("gap s [nm]");
-        m.y_axis = ax("sample bias V [V]");
-        for (double s : gaps) m.x.push_back(s * 1e9);
-        m.y = biases;
-        double top = 0.0;
-        for (const prediction& q : r) top = std::max(top, std::abs(q.current_A));
-        const auto unit = figures_detail::current_unit(top);
-        bool below_floor = false;
-        for (std::size_t ib = 0; ib < nb; ++ib)
-            for (std::size_t ig = 0; ig < ng; ++ig) {
-                const double I = std::abs(at(ib, ig).current_A);
-                below_floor = below_floor || (I > 0 && I < o.current_floor_A);
-                m.z.push_back(I > 0 ? std::log10(I * unit.per_A) : std::numeric_limits<double>::quiet_NaN());
-            }
-        // Below the floor nothing is measured: those cells take the darkest colour.
-        if (below_floor) m.z_min = std::log10(o.current_floor_A * unit.per_A);
-        m.colour_bar_label = fmt::format("log₁₀(|I| / 1 {})", unit.name);
-        f.panels.push_back(m);
-    }
+    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) f.panels.push_back(current_map_panel(gaps, biases, r, o));
     if (ng > 1) {
         plot::xy_panel ig = current_gap_panel("Current against gap");
         plot::xy_panel bg = barrier_gap_panel("Apparent barrier height against gap");
@@ -288,39 +329,7 @@ plot::figure predict_figure(const config& c, const std::vector<double>& gaps, co
         f.panels.push_back(ig);
         f.panels.push_back(bg);
     }
-    if (nb > 1) {
-        plot::xy_panel ib_panel;
-        ib_panel.title = "Current against bias";
-        ib_panel.x_axis = ax("sample bias V [V]");
-        double m = 0, m_small = std::numeric_limits<double>::infinity();
-        const std::size_t lines = std::min<std::size_t>(ng, 5);
-        std::vector<std::size_t> picked;
-        for (std::size_t l = 0; l < lines; ++l) picked.push_back(lines == 1 ? 0 : l * (ng - 1) / (lines - 1));
-        for (std::size_t ig : picked) {
-            double mi = 0;
-            for (std::size_t k = 0; k < nb; ++k) mi = std::max(mi, std::abs(at(k, ig).current_A));
-            m = std::max(m, mi);
-            m_small = std::min(m_small, mi);
-        }
-        // Curves more than two decades apart vanish on a linear axis: then |I| on a log axis.
-        const bool log_axis = m_small > 0 && m / m_small > 100.0;
-        auto [scale, unit] = current_unit(m);
-        ib_panel.y_axis = log_axis ? ax("|current| [A]", plot::axis_scale::log10) : ax(fmt::format("current I [{}]", unit));
-        for (std::size_t l = 0; l < picked.size(); ++l) {
-            const std::size_t ig = picked[l];
-            plot::series s;
-            s.label = fmt::format("s = {:g} nm", gaps[ig] * 1e9);
-            s.style = nb > 25 ? plot::draw_style::line : plot::draw_style::line_and_markers;
-            for (std::size_t k = 0; k < nb; ++k) {
-                s.x.push_back(biases[k]);
-                s.y.push_back(log_axis ? std::abs(at(k, ig).current_A) : at(k, ig).current_A * scale);
-            }
-            ib_panel.lines.push_back(s);
-        }
-        if (log_axis) clip_at_floor(ib_panel, o.current_floor_A);
-        else ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
-        f.panels.push_back(ib_panel);
-    }
+    if (nb > 1) f.panels.push_back(current_bias_grid_panel(gaps, biases, r, o));
     if (ng == 1 && nb == 1) {
         // One point: its neighbourhood in gap and bias.
         const double s0 = gaps[0], V0 = biases[0];

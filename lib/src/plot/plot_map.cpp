@@ -50,6 +50,54 @@ void draw_no_value_swatch(plstream& pls, double x0, double x1, double y0, double
     pls.psty(0);
 }
 
+// Colour bar to the right of the plot area, full height, from lo to hi.
+void draw_colour_bar(plstream& pls, const std::string& bar_label, double lo, double hi) {
+    PLFLT w = 0, h = 0;
+    PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
+    const std::string label = plplot_text(bar_label);
+    const char* labels[1] = {label.c_str()};
+    // 'o': plain-decimal labels from tick_label, never PLplot's "(x10ⁿ)" above the bar.
+    const char* axis_opts[1] = {"bcmstvo"};
+    PLFLT ticks[1] = {0.0};
+    PLINT sub_ticks[1] = {0};
+    PLFLT values[2] = {lo, hi};
+    const PLFLT* value_rows[1] = {values};
+    PLINT n_values[1] = {2};
+    pls.col0(ci_ink);
+    pls.width(frame_width);
+    double span = hi - lo;
+    pls.slabelfunc(
+        [](PLINT, PLFLT value, char* label, PLINT length, PLPointer data) {
+            std::snprintf(label, static_cast<std::size_t>(length), "%s", tick_label(value, *static_cast<double*>(data)).c_str());
+        },
+        &span);
+    pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
+                 PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
+                 ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
+                 sub_ticks, n_values, value_rows);
+    pls.slabelfunc(nullptr, nullptr);
+}
+
+// A key for the hatch, only when some cells have no value: a swatch at the top right, above the
+// plot area, with its text to the left of it (PLplot cannot measure text, so the text is
+// right-aligned against the swatch rather than the swatch placed after the text).
+void draw_no_value_key(plstream& pls, const cell& c, std::size_t missing, std::size_t cells) {
+    PLFLT vx0, vx1, vy0, vy1;
+    pls.gvpd(vx0, vx1, vy0, vy1);
+    PLFLT def_mm = 0, height_mm = 0;
+    pls.gchr(def_mm, height_mm);
+    const double sw = 1.6 * height_mm / c.page_width_mm, sh = 1.1 * height_mm / c.page_height_mm;
+    const double y0 = vy1 + 0.45 * height_mm / c.page_height_mm;
+    pls.vpor(vx1 - sw, vx1, y0, y0 + sh);
+    pls.wind(0, 1, 0, 1);
+    draw_no_value_swatch(pls, 0, 1, 0, 1);
+    pls.col0(ci_ink);
+    pls.schr(0, note_scale);
+    pls.mtex("lv", 0.6, 0.5, 1.0, plplot_text(fmt::format("no value: {} of {} cells", missing, cells)).c_str());
+    pls.schr(0, 1.0);
+    pls.vpor(vx0, vx1, vy0, vy1);
+}
+
 }  // namespace
 
 void validate_colour_map(const colour_map_panel& p, const location& where) {
@@ -131,53 +179,9 @@ void draw_colour_map(plstream& pls, const colour_map_panel& p, const cell& c) {
 
     draw_frame(pls, p.title, p.x_axis, p.y_axis);
 
-    // Colour bar to the right of the plot area, full height.
-    {
-        PLFLT w = 0, h = 0;
-        PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
-        const std::string label = plplot_text(p.colour_bar_label);
-        const char* labels[1] = {label.c_str()};
-        // 'o': plain-decimal labels from tick_label, never PLplot's "(x10ⁿ)" above the bar.
-        const char* axis_opts[1] = {"bcmstvo"};
-        PLFLT ticks[1] = {0.0};
-        PLINT sub_ticks[1] = {0};
-        PLFLT values[2] = {lo, hi};
-        const PLFLT* value_rows[1] = {values};
-        PLINT n_values[1] = {2};
-        pls.col0(ci_ink);
-        pls.width(frame_width);
-        double span = hi - lo;
-        pls.slabelfunc(
-            [](PLINT, PLFLT value, char* label, PLINT length, PLPointer data) {
-                std::snprintf(label, static_cast<std::size_t>(length), "%s", tick_label(value, *static_cast<double*>(data)).c_str());
-            },
-            &span);
-        pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
-                     PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
-                     ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
-                     sub_ticks, n_values, value_rows);
-        pls.slabelfunc(nullptr, nullptr);
-    }
+    draw_colour_bar(pls, p.colour_bar_label, lo, hi);
 
-    // A key for the hatch, only when some cells have no value: a swatch at the top right, above
-    // the plot area, with its text to the left of it (PLplot cannot measure text, so the text is
-    // right-aligned against the swatch rather than the swatch placed after the text).
-    if (missing > 0) {
-        PLFLT vx0, vx1, vy0, vy1;
-        pls.gvpd(vx0, vx1, vy0, vy1);
-        PLFLT def_mm = 0, height_mm = 0;
-        pls.gchr(def_mm, height_mm);
-        const double sw = 1.6 * height_mm / c.page_width_mm, sh = 1.1 * height_mm / c.page_height_mm;
-        const double y0 = vy1 + 0.45 * height_mm / c.page_height_mm;
-        pls.vpor(vx1 - sw, vx1, y0, y0 + sh);
-        pls.wind(0, 1, 0, 1);
-        draw_no_value_swatch(pls, 0, 1, 0, 1);
-        pls.col0(ci_ink);
-        pls.schr(0, note_scale);
-        pls.mtex("lv", 0.6, 0.5, 1.0, plplot_text(fmt::format("no value: {} of {} cells", missing, p.z.size())).c_str());
-        pls.schr(0, 1.0);
-        pls.vpor(vx0, vx1, vy0, vy1);
-    }
+    if (missing > 0) draw_no_value_key(pls, c, missing, p.z.size());
 }
 
 }  // namespace tipgap::plot::detail
