@@ -89,11 +89,14 @@ void run(const fit_args& args) {
         for (fitted_sweep& f : fit_and_compare(*curves.back(), options, model_config ? &*model_config : nullptr))
             all.push_back(std::move(f));
     }
-    for (std::size_t k = 0; !args.plot.empty() && k < all.size(); ++k) {
+    std::vector<fit_plot_source> sources;
+    for (const fitted_sweep& f : all) sources.push_back({f.curve->file, f.result.direction});
+    const std::vector<std::string> paths = args.plot.empty() ? std::vector<std::string>{} : fit_plot_paths(args.plot, sources);
+    for (std::size_t k = 0; k < paths.size(); ++k) {
         fitted_sweep& f = all[k];
-        f.plot_path = numbered_plot_path(args.plot, k, all.size());
-        const std::string title = fmt::format("{} ({})", f.curve->file, to_string(f.result.direction));
-        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, title), f.plot_path);
+        f.plot_path = paths[k];
+        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, fit_plot_title(sources[k])),
+                           f.plot_path);
     }
     report_frame frame{.rows_key = "curves", .after_table = model_comparison(all) + notes(all), .layout = {.rule = false}};
     frame.json.set("notes", reader_notes(curves));
@@ -114,7 +117,8 @@ command fit_command() {
     for (const flag& f : fit_flag_list(a->flags, true)) cmd.flags.push_back(f);
     cmd.flags.push_back({"--plot",
                          "Figure of each fitted sweep (PNG, SVG or PDF by extension): ln|I| with fit and band, residuals, "
-                         "phi_ap(z); several sweeps go to FILE-1.png, FILE-2.png, ...",
+                         "phi_ap(z); several sweeps go to FILE-<curve file stem>.png (FILE-<stem>-approach.png when a file has both "
+                         "directions)",
                          &a->plot, "FILE"});
     cmd.flags.push_back({"--config",
                          "Model comparison: fit the tunnelling model of this config (mean work function, gap offset, "

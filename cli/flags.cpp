@@ -38,6 +38,7 @@ constexpr flag_name flag_names[] = {
     {"map", "min_current_decades", "--min-decades"},
     {"map", "max_relative_stderr", "--max-relative-error"},
     {"map", "threads", "--threads"},
+    {"map", "range", "--range"},
     // synth_options and synth_grid_options
     {"synth", "bias_V", "--bias"},
     {"synth", "gap_min_m", "--gap"},

@@ -102,8 +102,10 @@ PY
 #    panels plus the title band for fits).
 "$TIPGAP" fit "$scans/01_w_au111_clean.csv" --plot "$tmp/one.png" --config default > "$tmp/fit.txt"
 "$TIPGAP" fit "$scans/05_w_au111_pair.csv" --plot "$tmp/pair.png" > /dev/null
-[ -e "$tmp/pair-1.png" ] && [ -e "$tmp/pair-2.png" ] && [ ! -e "$tmp/pair.png" ] || fail "pair plots not numbered"
-"$TIPGAP_PYTHON" - "$tmp/one.png" "$tmp/pair-1.png" "$tmp/demo/prediction.png" "$tmp/demo/fit-04_w_au111_contact.png" <<'PY'
+# Several sweeps: named after the input stem and the direction (issue 15).
+[ -e "$tmp/pair-05_w_au111_pair-approach.png" ] && [ -e "$tmp/pair-05_w_au111_pair-retract.png" ] && [ ! -e "$tmp/pair.png" ] ||
+    fail "pair plots not named after the input stem and direction"
+"$TIPGAP_PYTHON" - "$tmp/one.png" "$tmp/pair-05_w_au111_pair-approach.png" "$tmp/demo/prediction.png" "$tmp/demo/fit-04_w_au111_contact.png" <<'PY'
 import struct, sys, zlib
 for path in sys.argv[1:]:
     d = open(path, "rb").read()

@@ -31,7 +31,8 @@ std::string quality_codes() {
 const std::vector<std::string>& map_file_names() {
     static const std::vector<std::string> names = {"apparent_barrier_eV.csv", "decay_constant_per_nm.csv",
                                                    "stderr_apparent_barrier_eV.csv", "quality.csv", "summary.json",
-                                                   "barrier_map.png", "barrier_histogram.png"};
+                                                   "barrier_map.png", "barrier_histogram.png",
+                                                   "stderr_map.png", "quality_map.png"};
     return names;
 }
 
