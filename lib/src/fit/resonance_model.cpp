@@ -6,6 +6,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
 #include "fit/detail/fit_internal.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
