@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "commands.hpp"
+#include "demo_resonances.hpp"
 #include "output.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/core/constants.hpp"
@@ -143,6 +144,7 @@ nlohmann::ordered_json report_json(const demo_report& r, const std::string& out_
     }
     j["curves"] = curves;
     j["summary"] = {{"curves_compared", compared}, {"kappa_within_ci", within}};
+    j["resonances"] = resonance_json(r, out_dir);
     return j;
 }
 
@@ -219,6 +221,7 @@ void run(const demo_args& a) {
     namespace fs = std::filesystem;
     std::vector<std::string> names{"prediction.csv", "fits.csv", "demo.json", "prediction.png"};
     for (const demo_curve& d : r.curves) names.push_back(plot_name(d));
+    for (const demo_resonance& d : r.resonances) names.push_back(resonance_plot_name(d));
     atomic_directory out_dir(a.out, names);
     const fs::path dir(out_dir.temporary_path());
     write_output((dir / "prediction.csv").string(), prediction_csv(r));
@@ -231,6 +234,7 @@ void run(const demo_args& a) {
         plot::write_figure(make_fit_figure(d.sweep(), d.fit, d.model ? &*d.model : nullptr, title),
                            (dir / plot_name(d)).string());
     }
+    write_resonance_figures(r, dir);
     out_dir.commit();
 
     const prediction& mid = r.sweep[r.sweep.size() / 2];
@@ -262,6 +266,7 @@ void run(const demo_args& a) {
     fmt::print("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "
                "the image potential lowers the apparent barrier.\n",
                within, compared);
+    fmt::print("{}", resonance_summary(r));
     for (const std::string& f : r.files_without_truth) fmt::print("note: {} has no truth file\n", f);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png}} in {:.1f} s\n", a.out, seconds);

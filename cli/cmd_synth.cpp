@@ -8,6 +8,7 @@
 
 #include "commands.hpp"
 #include "output.hpp"
+#include "synth_zv.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
@@ -27,6 +28,8 @@ struct synth_args {
     std::string tip_label, sample_label;
     std::string grid, pitch = "1nm", pattern = "disc", disc_radius, disc_centre, disc_wf = "4.3eV";
     std::size_t points_per_curve = 128;
+    bool zv = false;                  // --zv: a constant-current z(V) trace instead (synth_zv.cpp)
+    std::string current, z_noise;
 };
 
 double flag_quantity(const std::string& text, dimension d, const char* flag) {
@@ -65,6 +68,12 @@ void run(const synth_args& a, const CLI::App* cmd) {
         c.model.sample.work_function_J = flag_quantity(a.sample_wf, dimension::energy, "--sample-work-function");
     if (!a.temperature.empty()) c.model.temperature_K = flag_quantity(a.temperature, dimension::temperature, "--temperature");
     c.model.validate();
+    if (a.zv) {
+        const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
+        const bool bias_given = cmd->get_option("--bias")->count() > 0;
+        run_synth_zv(c, {bias_given ? a.bias : "", a.current, a.z_noise, a.points, a.seed, a.out, truth, command_line(cmd)});
+        return;
+    }
 
     synth_options o;
     o.bias_V = flag_quantity(a.bias, dimension::voltage, "--bias");
@@ -214,6 +223,11 @@ void add_synth(CLI::App& app) {
     cmd->add_option("--disc-centre", a->disc_centre, "Disc centre X,Y (default the grid centre)")->type_name("X,Y");
     cmd->add_option("--disc-work-function", a->disc_wf, "Sample work function inside the disc (default 4.3eV)")
         ->type_name("ENERGY");
+    cmd->add_flag("--zv", a->zv, "Write a constant-current z(V) trace (exact model, with its resonances) instead: "
+                                 "--bias FROM..TO (default 4V..10V), --current, --z-noise, --points, --seed");
+    cmd->add_option("--current", a->current, "--zv: setpoint current (default 1nA)")->type_name("CURRENT");
+    cmd->add_option("--z-noise", a->z_noise, "--zv: standard deviation of white z noise, e.g. 2pm (default 0)")
+        ->type_name("LENGTH");
     cmd->callback([a, cmd]() { run(*a, cmd); });
 }
 

@@ -17,6 +17,9 @@ void add_map(CLI::App& app);
 // tipgap synth: synthetic curves and grids with their ground truth (cmd_synth.cpp).
 void add_synth(CLI::App& app);
 
+// tipgap resonances: field-emission resonances and the local work function (cmd_resonances.cpp).
+void add_resonances(CLI::App& app);
+
 // tipgap demo: the main job on the built-in config and the demo scans (cmd_demo.cpp).
 void add_demo(CLI::App& app);
 

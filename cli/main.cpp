@@ -19,6 +19,7 @@ int main(int argc, char** argv) {
     tipgap::cli::add_fit(app);
     tipgap::cli::add_map(app);
     tipgap::cli::add_synth(app);
+    tipgap::cli::add_resonances(app);
     tipgap::cli::add_demo(app);
 
     try {

@@ -35,3 +35,10 @@ synth --out 06_contaminated_au111.csv --gap 0.6nm..1.05nm --bias 100mV --noise 0
 # 7. The re-flashed tip on freshly cleaved graphite.
 synth --out 07_w_graphite.csv --gap 0.6nm..1nm --bias 200mV --noise 0.1pA --sample-material graphite \
       --seed 107 --tip-label "W, re-flashed" --sample-label "graphite (HOPG)"
+
+# 8. Resonances (demo_scans/resonances/): the same W tip over a silver monolayer island on Au(111),
+#    imagined with a local work function of 4.6 eV. A constant-current z(V) trace at 1 nA from 4 to
+#    10 V in 50 mV steps with 2 pm of z noise, for `tipgap resonances` (exact transmission model).
+mkdir -p resonances
+synth --zv --out resonances/08_w_ag_island_zv.csv --sample-work-function 4.6eV --current 1nA --bias 4V..10V \
+      --points 121 --z-noise 2pm --seed 108
