@@ -6,6 +6,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "core/detail/parallel.hpp"
 #include "fit/detail/fit_internal.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -47,7 +48,7 @@ model_trace compute_model(const config& base, const bias_trace& t, double phi, c
     const std::size_t n = t.bias_V.size();
     m.signal.assign(n, 0.0);
     std::atomic<bool> reachable{true};
-    parallel_for(n, o.threads, [&](std::size_t i) {
+    detail::parallel_for(n, o.threads, [&](std::size_t i) {
         const double V = t.bias_V[i];
         const gap_solution g = solve_gap(c, *t.current_A, V);
         if (!g.reachable()) {

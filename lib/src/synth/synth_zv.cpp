@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 #include <yaml-cpp/yaml.h>
 
+#include "core/detail/parallel.hpp"
 #include "synth/detail/normal_source.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -79,7 +80,7 @@ zv_synth_trace synthesise_zv_trace(const config& base, const zv_synth_options& o
     for (std::size_t k = 0; k < n; ++k) {
         t.bias_V[k] = o.bias_from_V + (o.bias_to_V - o.bias_from_V) * static_cast<double>(k) / static_cast<double>(n - 1);
     }
-    parallel_for(n, 0, [&](std::size_t k) { t.gap_m[k] = gap_at(c, o.current_A, t.bias_V[k]); });
+    detail::parallel_for(n, 0, [&](std::size_t k) { t.gap_m[k] = gap_at(c, o.current_A, t.bias_V[k]); });
     t.gap_at_z0_m = t.gap_m.front() - o.z_at_first_m;
     detail::normal_source noise(o.seed);
     t.z_m.resize(n);
