@@ -18,6 +18,7 @@
 #include "tipgap/demo/demo_columns.hpp"
 #include "tipgap/figures/demo_figures.hpp"
 #include "tipgap/figures/fit_plot.hpp"
+#include "tipgap/figures/resonance_plot.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/plot/plot.hpp"
 
@@ -52,6 +53,7 @@ std::string find_demo_scans() {
 void write_report(const demo_report& r, const std::string& out) {
     std::vector<std::string> names{"prediction.csv", "fits.csv", "demo.json", "prediction.png"};
     for (const demo_curve& d : r.curves) names.push_back(demo_plot_name(d));
+    for (const demo_resonance& d : r.resonances) names.push_back(demo_resonance_plot_name(d));
     atomic_directory out_dir(out, names);
     const fs::path dir(out_dir.temporary_path());
     write_output((dir / "prediction.csv").string(), format_csv(demo_prediction_columns(), r.sweep));
@@ -61,6 +63,10 @@ void write_report(const demo_report& r, const std::string& out) {
     for (const demo_curve& d : r.curves) {
         const std::string title = fmt::format("{} ({}), synthetic", fs::path(d.curve->file).filename().string(), to_string(d.fit.direction));
         plot::write_figure(make_fit_figure(d.sweep(), d.fit, d.model ? &*d.model : nullptr, title), (dir / demo_plot_name(d)).string());
+    }
+    for (const demo_resonance& d : r.resonances) {
+        const std::string title = fmt::format("{}, synthetic", fs::path(d.trace->file).filename().string());
+        plot::write_figure(make_resonance_figure(*d.trace, d.result, title), (dir / demo_resonance_plot_name(d)).string());
     }
     out_dir.commit();
 }
@@ -102,6 +108,10 @@ void print_summary(const demo_report& r, const demo_options& o) {
     fmt::print("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "
                "the image potential lowers the apparent barrier.\n",
                t.kappa_within, t.compared);
+    if (!r.resonances.empty())
+        fmt::print("\nfield-emission resonances of the synthetic z(V) traces (sample work function from the peaks; the "
+                   "triangular-well formula ignores the image potential and reads low):\n{}",
+                   format_table(demo_resonance_columns(), r.resonances));
     for (const std::string& f : r.files_without_truth) fmt::print("note: {} has no truth file\n", f);
     print_read_options(r);
 }

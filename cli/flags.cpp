@@ -55,6 +55,12 @@ constexpr flag_name flag_names[] = {
     {"synth", "pitch_m", "--pitch"},
     {"synth", "disc_radius_m", "--disc-radius"},
     {"synth", "disc_work_function_J", "--disc-work-function"},
+    // zv_synth_options (synth --zv)
+    {"synth", "current_A", "--current"},
+    {"synth", "z_noise_m", "--z-noise"},
+    // resonance_options
+    {"resonances", "smoothing", "--smoothing"},
+    {"resonances", "threads", "--threads"},
 };
 
 }  // namespace

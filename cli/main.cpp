@@ -210,7 +210,7 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
-    for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, demo_command})
+    for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, resonances_command, demo_command})
         add_command(app, make());
     try {
         app.parse(argc, argv);

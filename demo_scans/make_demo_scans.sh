@@ -67,3 +67,10 @@ flip_z: true
 bias: 100 mV
 temperature: 4.2 K
 YAML
+
+# 9. Resonances (demo_scans/resonances/): the same W tip over a silver monolayer island on Au(111),
+#    imagined with a local work function of 4.6 eV. A constant-current z(V) trace at 1 nA from 4 to
+#    10 V in 50 mV steps with 2 pm of z noise, for `tipgap resonances` (exact transmission model).
+mkdir -p resonances
+synth --zv --out resonances/08_w_ag_island_zv.csv --sample-work-function 4.6eV --current 1nA --bias 4V..10V \
+      --points 121 --z-noise 2pm --seed 108

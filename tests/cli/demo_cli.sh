@@ -17,6 +17,9 @@ bash "$tmp/regen/make_demo_scans.sh" "$TIPGAP"
 for f in "$scans"/*.csv "$scans"/*.tsv "$scans"/*.truth.yaml "$scans"/*.read.yaml; do
   cmp -s "$f" "$tmp/regen/$(basename "$f")" || fail "$(basename "$f") does not regenerate byte-identically"
 done
+for f in "$scans"/resonances/*; do
+  cmp -s "$f" "$tmp/regen/resonances/$(basename "$f")" || fail "resonances/$(basename "$f") does not regenerate byte-identically"
+done
 n=$(ls "$tmp/regen"/*.csv "$tmp/regen"/*.tsv | wc -l)
 [ "$n" -eq "$(ls "$scans"/*.csv "$scans"/*.tsv | wc -l)" ] || fail "regenerated $n curves"
 

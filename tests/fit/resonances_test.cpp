@@ -10,6 +10,7 @@
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/fit/resonances.hpp"
+#include "tipgap/model/geometry.hpp"
 #include "tipgap/plan/plan.hpp"
 
 using namespace tipgap;
@@ -188,4 +189,34 @@ TEST(resonance_model, needs_the_setpoint_current) {
         EXPECT_STREQ(e.what(), "trace.csv: current: the trace has no '# current:' line; the model fit needs the "
                                "setpoint current (e.g. '# current: 1 nA')");
     }
+}
+
+// A dI/dV trace with the feedback on (tipgap's own exact model, sample 5.0 eV, lock-in in arbitrary
+// units: the model is scaled onto it): the same resonances, found as peaks of dI/dV itself, and the
+// model fit recovers the work function (self-consistency of the dI/dV path).
+TEST(resonance_model, recovers_work_function_from_didv_trace) {
+    config truth = default_config();
+    truth.model.method = method_kind::exact;
+    truth.model.bias_limit_V = 12;
+    truth.model.sample.work_function_J = 5.0 * J_per_eV;
+    bias_trace t;
+    t.kind = trace_kind::didv;
+    t.arbitrary_units = true;
+    t.current_A = 1e-9;
+    for (int i = 0; i <= 45; ++i) t.bias_V.push_back(4.5 + 0.1 * i);  // 0.1 V: 7 samples per window
+    t.signal.resize(t.bias_V.size());
+    for (std::size_t i = 0; i < t.bias_V.size(); ++i) {
+        const double V = t.bias_V[i], s = solve_gap(truth, 1e-9, V).gap_m, h = 1e-3;
+        t.signal[i] = 3e9 * (total_current(truth.model, truth.geometry, s, V + h) -
+                             total_current(truth.model, truth.geometry, s, V - h)) / (2.0 * h);
+    }
+    resonance_options o;
+    o.threads = 2;
+    const auto r = analyse_resonances(default_config(), t, o);
+    ASSERT_EQ(r.status, resonance_status::ok) << r.message;
+    ASSERT_GE(r.peaks.size(), 2u);
+    EXPECT_NEAR(r.work_function_J / J_per_eV, 5.0, 1e-2);
+    // The formula's dI/dV branch fits phi and F to V_n against n^(2/3): a field of a few V/nm.
+    EXPECT_GT(r.field_V_per_m, 1e9);
+    EXPECT_LT(r.field_V_per_m, 2e10);
 }

@@ -9,6 +9,42 @@
 #include "core/detail/parallel.hpp"
 
 namespace tipgap {
+namespace {
+
+// The z(V) traces in <scans>/resonances/ with their resonance analysis against their truth.
+std::vector<demo_resonance> demo_resonances(const config& c, const std::string& scans, int threads) {
+    namespace fs = std::filesystem;
+    std::vector<demo_resonance> out;
+    const fs::path dir = fs::path(scans) / "resonances";
+    std::error_code ec;
+    if (!fs::is_directory(dir, ec)) return out;
+    std::vector<std::string> files;
+    for (const fs::directory_entry& e : fs::directory_iterator(dir)) {
+        if (e.is_regular_file() && e.path().extension() == ".csv") files.push_back(e.path().string());
+    }
+    std::sort(files.begin(), files.end());
+    resonance_options ro;
+    ro.threads = threads;
+    for (const std::string& f : files) {
+        demo_resonance d;
+        d.trace = std::make_shared<const bias_trace>(read_bias_trace(f));
+        d.result = analyse_resonances(c, *d.trace, ro);
+        const std::string tp = truth_path_for(f);
+        if (fs::exists(tp)) d.truth = read_zv_truth(tp);
+        if (d.truth) {
+            const double w = d.truth->sample_work_function_J;
+            d.work_function_within = w >= d.result.work_function_ci_low_J && w <= d.result.work_function_ci_high_J;
+            for (std::size_t k = 0; k < d.result.peaks.size() && k < d.truth->peaks_V.size(); ++k) {
+                d.largest_peak_error_V =
+                    std::max(d.largest_peak_error_V, std::abs(d.result.peaks[k].bias_V - d.truth->peaks_V[k]));
+            }
+        }
+        out.push_back(std::move(d));
+    }
+    return out;
+}
+
+}  // namespace
 
 namespace {
 
@@ -95,6 +131,7 @@ demo_report run_demo(const demo_options& o) {
             d.work_function_within = std::abs(d.model->mean_work_function_J - d.truth->mean_work_function_J) <= half;
         }
     });
+    if (o.resonances) rep.resonances = demo_resonances(rep.cfg, o.scans_dir, o.threads);
     return rep;
 }
 

@@ -173,7 +173,13 @@ std::vector<resonance_peak> find_resonance_peaks(trace_kind kind, const std::vec
                                                  std::vector<double>* smoothed_out) {
     const double w = o.smoothing_half_width_V;
     const smoothed_trace s = smooth(kind, V, y, w);
-    if (smoothed_out) *smoothed_out = s.value;
+    if (smoothed_out) {
+        // Within half a window of the ends the window is one-sided: shown as a gap, not searched.
+        *smoothed_out = s.value;
+        for (std::size_t i = 0; i < s.full.size(); ++i) {
+            if (!s.full[i]) (*smoothed_out)[i] = std::numeric_limits<double>::quiet_NaN();
+        }
+    }
     std::vector<resonance_peak> peaks;
     const auto& d = s.value;
     for (std::size_t i = 1; i + 1 < d.size(); ++i) {

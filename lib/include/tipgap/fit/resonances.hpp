@@ -69,7 +69,7 @@ struct resonance_result {
     trace_kind kind = trace_kind::zv;
     double smoothing_width_V = 0;          // full width of the smoothing window (V)
     std::vector<double> bias_V;            // the trace's biases (V)
-    std::vector<double> smoothed;          // dz/dV (m/V) or smoothed dI/dV at bias_V
+    std::vector<double> smoothed;          // dz/dV (m/V) or smoothed dI/dV at bias_V (NaN near the ends)
     std::vector<resonance_peak> peaks;
 
     static constexpr double nan = std::numeric_limits<double>::quiet_NaN();
@@ -90,7 +90,8 @@ struct resonance_result {
 };
 
 // Peaks of one trace (no model). kind: what signal holds; bias_V ascending (V); signal: z (m) or
-// dI/dV; smoothed: if not null, receives the smoothed derivative / signal at every bias.
+// dI/dV; smoothed: if not null, receives the smoothed derivative / signal at every bias (NaN within
+// half a window of either end, where the window is one-sided and no peak is searched).
 std::vector<resonance_peak> find_resonance_peaks(trace_kind kind, const std::vector<double>& bias_V,
                                                  const std::vector<double>& signal, const resonance_options& options,
                                                  std::vector<double>* smoothed = nullptr);
