@@ -269,7 +269,8 @@ void run(const demo_args& a) {
     fmt::print("{}", resonance_summary(r));
     for (const std::string& f : r.files_without_truth) fmt::print("note: {} has no truth file\n", f);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png}} in {:.1f} s\n", a.out, seconds);
+    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png{}}} in {:.1f} s\n", a.out,
+               r.resonances.empty() ? "" : ", resonance-*.png", seconds);
 }
 
 }  // namespace
