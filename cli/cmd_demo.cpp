@@ -126,7 +126,8 @@ void run(const demo_args& a) {
     write_report(r, a.out);
     print_summary(r, o);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png}} in {:.1f} s\n", a.out, seconds);
+    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png{}}} in {:.1f} s\n", a.out,
+               r.resonances.empty() ? "" : ", resonance-*.png", seconds);
 }
 
 }  // namespace
