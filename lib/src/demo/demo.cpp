@@ -119,7 +119,9 @@ demo_report run_demo(const demo_options& o) {
         demo_curve& d = rep.curves[i];
         if (o.model_comparison) {
             const double bias = d.curve->metadata.bias_V ? *d.curve->metadata.bias_V : std::nan("");
-            d.model = fit_model_to_sweep(rep.cfg, d.sweep(), d.fit, bias, model_fit_options{},
+            config at_temperature = rep.cfg;  // the model at the measurement's temperature (fit_and_compare)
+            if (d.curve->metadata.temperature_K) at_temperature.model.temperature_K = *d.curve->metadata.temperature_K;
+            d.model = fit_model_to_sweep(at_temperature, d.sweep(), d.fit, bias, model_fit_options{},
                                          location{d.curve->file, 0, 0, ""});
         }
         if (d.sweep_truth) {
