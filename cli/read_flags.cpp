@@ -27,7 +27,8 @@ std::vector<std::string> split_list(const std::string& text) {
 reader_options to_reader_options(const read_flags& f, const char* command, std::size_t roles) {
     reader_options o;
     if (!f.delimiter.empty() && !from_string(f.delimiter, o.delimiter))
-        throw_usage("--delimiter", fmt::format("{} is not a delimiter; expected comma, tab, semicolon or space", quote_input(f.delimiter)));
+        throw_usage("--delimiter", fmt::format("{} is not a delimiter; expected {}", quote_input(f.delimiter),
+                                               accepted_names<delimiter_choice>()));
     if (!f.columns.empty()) o.columns = split_list(f.columns);
     o.z_unit = f.z_unit;
     o.current_unit = f.current_unit;

@@ -105,7 +105,7 @@ usage() {  # usage FRAGMENT ARGS...
 }
 usage "--columns: 1 column given; expected 2 (z, current)" fit "$tmp/own.csv" --columns Z
 usage "--columns: 3 columns given; expected 4 (x, y, z, current)" map "$tmp/grid.csv" --columns 1,2,3 --output-dir "$tmp/m"
-usage "--delimiter: 'pipe' is not a delimiter; expected comma, tab, semicolon or space" fit "$tmp/own.csv" --delimiter pipe
+usage "--delimiter: 'pipe' is not a delimiter; expected detect, comma, tab, semicolon or space" fit "$tmp/own.csv" --delimiter pipe
 usage "--bias: 0 V is out of range" fit "$tmp/own.csv" --bias 0V
 usage "--temperature: -3 K is out of range" fit "$tmp/own.csv" --temperature -3K
 usage "--z-unit: unknown unit 'furlong'" fit "$tmp/own.csv" --z-unit furlong

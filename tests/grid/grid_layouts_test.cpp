@@ -16,6 +16,7 @@
 #include <vector>
 
 #include "tipgap/core/error.hpp"
+#include "support/temp_dir.hpp"
 #include "tipgap/grid/grid.hpp"
 
 using namespace tipgap;
@@ -54,16 +55,7 @@ std::string comma(const std::string& s) {
     return out;
 }
 
-struct temp_dir {
-    fs::path path = fs::temp_directory_path() / fmt::format("tipgap_grid_layouts_{}", ::testing::UnitTest::GetInstance()->random_seed());
-    temp_dir() { fs::create_directories(path); }
-    ~temp_dir() { fs::remove_all(path); }
-    std::string file(const std::string& name, const std::string& text) const {
-        const std::string p = (path / name).string();
-        std::ofstream(p, std::ios::binary) << text;
-        return p;
-    }
-};
+using tipgap_test::temp_dir;
 
 pixel_map read_pixels(const std::string& path, const reader_options& reader, grid_layout* layout = nullptr) {
     grid_read_options o;
@@ -177,7 +169,7 @@ TEST(grid_layouts, bias_given_overrides_the_file_with_a_note) {
 TEST(grid_layouts, directory_of_tab_separated_curve_files) {
     temp_dir d;
     const pixel_map reference = read_pixels(d.file("comma.csv", reference_text()), {});
-    fs::create_directories(d.path / "dir");
+    fs::create_directories(d.path() / "dir");
     for (int iy = 0; iy < ny; ++iy) {
         for (int ix = 0; ix < nx; ++ix) {
             std::string t = fmt::format("# x: {} nm\n# y: {} nm\nZ (nm)\tI (pA)\tAux (V)\n", ix, iy);
@@ -189,6 +181,6 @@ TEST(grid_layouts, directory_of_tab_separated_curve_files) {
     o.columns = {"x", "y", "Z", "I"};  // x and y come from the metadata; z and current from these columns
     o.bias_V = 0.1;
     grid_layout layout;
-    EXPECT_EQ(read_pixels((d.path / "dir").string(), o, &layout), reference);
+    EXPECT_EQ(read_pixels((d.path() / "dir").string(), o, &layout), reference);
     EXPECT_TRUE(layout.notes.empty());
 }

@@ -39,6 +39,13 @@ reader_options with_columns(std::vector<std::string> columns) {
     return o;
 }
 
+reader_options with_units(std::string z_unit, std::string current_unit) {
+    reader_options o;
+    o.z_unit = std::move(z_unit);
+    o.current_unit = std::move(current_unit);
+    return o;
+}
+
 // The three rows every layout below holds: z 0.25, 0.5, 0.75 and current 40, 8, 1.5 (file units).
 void expect_rows(const measured_curve& c, double z_unit, double current_unit) {
     ASSERT_EQ(c.z_m.size(), 3u);
@@ -122,9 +129,7 @@ TEST(delimited_reader, headerless_file_with_columns_by_index_and_units) {
 }
 
 TEST(delimited_reader, given_units_for_a_header_without_units) {
-    reader_options o;
-    o.z_unit = "Å";
-    o.current_unit = "fA";
+    const reader_options o = with_units("Å", "fA");
     const measured_curve c = read("z,current\n0.25,40\n0.5,8\n0.75,1.5\n", o);
     expect_rows(c, angstrom, fA);
     EXPECT_TRUE(c.notes.empty());

@@ -13,10 +13,6 @@ namespace tipgap {
 
 namespace {
 
-constexpr std::pair<delimiter_choice, const char*> delimiter_names[] = {
-    {delimiter_choice::detect, "detect"}, {delimiter_choice::comma, "comma"}, {delimiter_choice::tab, "tab"},
-    {delimiter_choice::semicolon, "semicolon"}, {delimiter_choice::space, "space"}};
-
 // Role names of the `columns` entries, for messages.
 const char* role_list(std::size_t roles) { return roles == 4 ? "x, y, z, current" : "z, current"; }
 
@@ -52,22 +48,6 @@ void check_unit(const std::string& unit, dimension d, const char* key) {
 }
 
 }  // namespace
-
-const char* to_string(delimiter_choice d) {
-    for (const auto& [value, name] : delimiter_names)
-        if (value == d) return name;
-    return "detect";
-}
-
-bool from_string(std::string_view s, delimiter_choice& out) {
-    for (const auto& [value, name] : delimiter_names) {
-        if (detail::iequals(s, name)) {
-            out = value;
-            return true;
-        }
-    }
-    return false;
-}
 
 void reader_options::validate(std::size_t roles) const {
     check_columns(columns, roles);

@@ -31,8 +31,8 @@ std::string scalar(const std::string& file, const YAML::Node& n, const std::stri
 void read_key(const std::string& file, const std::string& key, const YAML::Node& v, reader_options& o) {
     if (key == "delimiter") {
         if (!from_string(scalar(file, v, key), o.delimiter))
-            throw_input(at(file, v, key), fmt::format("{} is not a delimiter; expected detect, comma, tab, semicolon or space",
-                                                      quote_input(v.Scalar())));
+            throw_input(at(file, v, key), fmt::format("{} is not a delimiter; expected {}", quote_input(v.Scalar()),
+                                                      accepted_names<delimiter_choice>()));
     } else if (key == "columns") {
         if (!v.IsSequence()) throw_input(at(file, v, key), "expected a list of header names or 1-based indices, e.g. [Z, I]");
         for (const YAML::Node& c : v) o.columns.push_back(scalar(file, c, key));

@@ -16,6 +16,8 @@
 #include <utility>
 #include <vector>
 
+#include "tipgap/core/enum_names.hpp"
+
 namespace tipgap {
 
 enum class delimiter_choice {
@@ -25,10 +27,16 @@ enum class delimiter_choice {
     semicolon,  // ';'
     space,      // runs of spaces and tabs
 };
-// "detect", "comma", "tab", "semicolon", "space".
-const char* to_string(delimiter_choice d);
-// Accepts the names of to_string (any letter case); false for anything else.
-bool from_string(std::string_view s, delimiter_choice& out);
+// "detect", "comma", "tab", "semicolon", "space" (read in any letter case).
+template <>
+struct enum_names<delimiter_choice> {
+    static constexpr bool ignore_case = true;
+    static constexpr enum_name<delimiter_choice> table[] = {{delimiter_choice::detect, "detect"},
+                                                            {delimiter_choice::comma, "comma"},
+                                                            {delimiter_choice::tab, "tab"},
+                                                            {delimiter_choice::semicolon, "semicolon"},
+                                                            {delimiter_choice::space, "space"}};
+};
 
 struct reader_options {
     delimiter_choice delimiter = delimiter_choice::detect;
