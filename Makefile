@@ -1,6 +1,6 @@
 # Thin wrapper for the README's two commands. Everything real lives in CMake.
-#   make demo   install missing Debian packages, build the library and the executable only
-#               (Release; no tests, benchmarks or fuzzers), run `tipgap demo`
+#   make demo   install missing Debian packages, build the library, the executable and the Python
+#               module (Release; no tests, benchmarks or fuzzers), run `tipgap demo`
 #   make check  install missing Debian packages, then
 #               1. Release build + the whole ctest suite,
 #               2. ASan+UBSan build (build-asan/) + the ctest suite without the SciPy cross-checks,
@@ -23,7 +23,8 @@ JOBS ?= $(shell nproc)
 DEMO_OUT ?= tipgap-demo
 DEBIAN_PACKAGES = cmake g++ make pkg-config libboost-math-dev libeigen3-dev libyaml-cpp-dev \
   libgtest-dev libgmock-dev libcli11-dev libfmt-dev nlohmann-json3-dev libplplot-dev plplot-driver-cairo \
-  libbenchmark-dev python3 python3-numpy python3-scipy clang libclang-rt-14-dev time
+  libbenchmark-dev python3 python3-numpy python3-scipy clang libclang-rt-14-dev time \
+  pybind11-dev python3-dev python3-pytest
 
 .PHONY: deps configure build demo check check-release check-sanitize fuzz
 
@@ -37,8 +38,9 @@ deps:
 	  $$SUDO apt-get update && DEBIAN_FRONTEND=noninteractive $$SUDO apt-get install -y $$missing; \
 	fi
 
-# One build tree for both commands: `make demo` builds only the `tipgap` target (and the library it
-# links), `make check` then builds the rest in the same tree without recompiling the library.
+# One build tree for both commands: `make demo` builds only the `tipgap` executable and the Python
+# module `tipgap_python` (and the library they link), `make check` then builds the rest in the same
+# tree without recompiling the library.
 configure: deps
 	cmake -S . -B $(BUILD) -DCMAKE_BUILD_TYPE=Release
 
@@ -46,7 +48,7 @@ build: configure
 	cmake --build $(BUILD) -j $(JOBS)
 
 demo: configure
-	cmake --build $(BUILD) -j $(JOBS) --target tipgap
+	cmake --build $(BUILD) -j $(JOBS) --target tipgap tipgap_python
 	$(BUILD)/cli/tipgap demo --out $(DEMO_OUT)
 
 # In this order even under `make -j`: a failing Release suite stops before the slower steps.
@@ -60,7 +62,7 @@ check-release: build
 
 check-sanitize: deps
 	cmake -S . -B $(SAN_BUILD) -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_FLAGS_RELWITHDEBINFO="$(SAN_OPT_FLAGS)" \
-	  -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF
+	  -DTIPGAP_SANITIZE=ON -DTIPGAP_BUILD_BENCH=OFF -DTIPGAP_PYTHON=OFF
 	cmake --build $(SAN_BUILD) -j $(JOBS)
 	ASAN_OPTIONS=detect_leaks=1:abort_on_error=1 UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
 	  LSAN_OPTIONS=suppressions=$(CURDIR)/tests/sanitizer/lsan.supp:print_suppressions=0 \

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "command.hpp"
+#include "flags.hpp"
 #include "output.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -17,6 +18,7 @@
 #include "tipgap/demo/demo_columns.hpp"
 #include "tipgap/figures/demo_figures.hpp"
 #include "tipgap/figures/fit_plot.hpp"
+#include "tipgap/figures/resonance_plot.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/plot/plot.hpp"
 
@@ -51,6 +53,7 @@ std::string find_demo_scans() {
 void write_report(const demo_report& r, const std::string& out) {
     std::vector<std::string> names{"prediction.csv", "fits.csv", "demo.json", "prediction.png"};
     for (const demo_curve& d : r.curves) names.push_back(demo_plot_name(d));
+    for (const demo_resonance& d : r.resonances) names.push_back(demo_resonance_plot_name(d));
     atomic_directory out_dir(out, names);
     const fs::path dir(out_dir.temporary_path());
     write_output((dir / "prediction.csv").string(), format_csv(demo_prediction_columns(), r.sweep));
@@ -61,7 +64,25 @@ void write_report(const demo_report& r, const std::string& out) {
         const std::string title = fmt::format("{} ({}), synthetic", fs::path(d.curve->file).filename().string(), to_string(d.fit.direction));
         plot::write_figure(make_fit_figure(d.sweep(), d.fit, d.model ? &*d.model : nullptr, title), (dir / demo_plot_name(d)).string());
     }
+    for (const demo_resonance& d : r.resonances) {
+        const std::string title = fmt::format("{}, synthetic", fs::path(d.trace->file).filename().string());
+        plot::write_figure(make_resonance_figure(*d.trace, d.result, title), (dir / demo_resonance_plot_name(d)).string());
+    }
     out_dir.commit();
+}
+
+// The options a file in another layout was read with, as `tipgap fit` takes them.
+void print_read_options(const demo_report& r) {
+    const measured_curve* last = nullptr;
+    for (const demo_curve& d : r.curves) {
+        if (d.curve.get() == last) continue;
+        last = d.curve.get();
+        std::string flags;
+        for (const auto& [key, value] : settings(d.read)) flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
+        if (!flags.empty())
+            fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", fs::path(d.curve->file).filename().string(),
+                       fs::path(d.curve->file).filename().string(), flags);
+    }
 }
 
 void print_summary(const demo_report& r, const demo_options& o) {
@@ -87,7 +108,12 @@ void print_summary(const demo_report& r, const demo_options& o) {
     fmt::print("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "
                "the image potential lowers the apparent barrier.\n",
                t.kappa_within, t.compared);
+    if (!r.resonances.empty())
+        fmt::print("\nfield-emission resonances of the synthetic z(V) traces (sample work function from the peaks; the "
+                   "triangular-well formula ignores the image potential and reads low):\n{}",
+                   format_table(demo_resonance_columns(), r.resonances));
     for (const std::string& f : r.files_without_truth) fmt::print("note: {} has no truth file\n", f);
+    print_read_options(r);
 }
 
 void run(const demo_args& a) {
@@ -100,7 +126,8 @@ void run(const demo_args& a) {
     write_report(r, a.out);
     print_summary(r, o);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png}} in {:.1f} s\n", a.out, seconds);
+    fmt::print("wrote {}/{{prediction.csv, fits.csv, demo.json, prediction.png, fit-*.png{}}} in {:.1f} s\n", a.out,
+               r.resonances.empty() ? "" : ", resonance-*.png", seconds);
 }
 
 }  // namespace

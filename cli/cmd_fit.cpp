@@ -9,6 +9,7 @@
 #include "command.hpp"
 #include "fit_flags.hpp"
 #include "output.hpp"
+#include "read_flags.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/fit/fit_columns.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
@@ -21,6 +22,7 @@ namespace {
 struct fit_args {
     std::vector<std::string> files;
     fit_flags flags;
+    read_flags read;
     output_format format = output_format::table;
     std::string output;
     std::string plot;         // --plot FILE: one figure per fitted sweep
@@ -61,8 +63,20 @@ std::string notes(const std::vector<fitted_sweep>& all) {
     return out.empty() ? out : "notes:\n" + out;
 }
 
+// The reader's notes of every file (a bias, temperature or unit given that the file states
+// otherwise), on stderr now and in the JSON document.
+std::vector<std::string> reader_notes(const std::vector<std::unique_ptr<measured_curve>>& curves) {
+    std::vector<std::string> out;
+    for (const auto& c : curves) {
+        print_notes(c->notes, c->file);
+        for (const std::string& n : c->notes) out.push_back(fmt::format("{}: {}", c->file, n));
+    }
+    return out;
+}
+
 void run(const fit_args& args) {
     const fit_options options = to_fit_options(args.flags, "fit");
+    const reader_options reading = to_reader_options(args.read, "fit", 2);
     std::optional<config> model_config;
     // "default" names the built-in config (configs/default.yaml), as used by the demo.
     if (!args.config_path.empty())
@@ -71,17 +85,21 @@ void run(const fit_args& args) {
     std::vector<std::unique_ptr<measured_curve>> curves;
     std::vector<fitted_sweep> all;
     for (const std::string& file : args.files) {
-        curves.push_back(std::make_unique<measured_curve>(read_curve_csv(file)));
+        curves.push_back(std::make_unique<measured_curve>(read_curve_csv(file, reading)));
         for (fitted_sweep& f : fit_and_compare(*curves.back(), options, model_config ? &*model_config : nullptr))
             all.push_back(std::move(f));
     }
-    for (std::size_t k = 0; !args.plot.empty() && k < all.size(); ++k) {
+    std::vector<fit_plot_source> sources;
+    for (const fitted_sweep& f : all) sources.push_back({f.curve->file, f.result.direction});
+    const std::vector<std::string> paths = args.plot.empty() ? std::vector<std::string>{} : fit_plot_paths(args.plot, sources);
+    for (std::size_t k = 0; k < paths.size(); ++k) {
         fitted_sweep& f = all[k];
-        f.plot_path = numbered_plot_path(args.plot, k, all.size());
-        const std::string title = fmt::format("{} ({})", f.curve->file, to_string(f.result.direction));
-        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, title), f.plot_path);
+        f.plot_path = paths[k];
+        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, fit_plot_title(sources[k])),
+                           f.plot_path);
     }
     report_frame frame{.rows_key = "curves", .after_table = model_comparison(all) + notes(all), .layout = {.rule = false}};
+    frame.json.set("notes", reader_notes(curves));
     const bool with_model = !all.empty() && all.front().model.has_value();
     write_output(args.output, render(args.format, fitted_sweep_columns(with_model), all, frame));
 }
@@ -91,11 +109,16 @@ void run(const fit_args& args) {
 command fit_command() {
     auto a = std::make_shared<fit_args>();
     command cmd{"fit", "Decay constant and apparent barrier height from measured I(z) curves (one CSV file per curve)"};
-    cmd.flags = {{"files", "Curve files: '# key: value' metadata, header 'z [nm],current [nA]', rows", &a->files, "FILE...", true}};
+    cmd.flags = {{"files",
+                  "Curve files: '# key: value' metadata, a header such as 'z [nm],current [nA]' (comma, tab, semicolon or "
+                  "whitespace separated; units in [], () or after /), rows",
+                  &a->files, "FILE...", true}};
+    for (const flag& f : read_flag_list(a->read, false)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, true)) cmd.flags.push_back(f);
     cmd.flags.push_back({"--plot",
                          "Figure of each fitted sweep (PNG, SVG or PDF by extension): ln|I| with fit and band, residuals, "
-                         "phi_ap(z); several sweeps go to FILE-1.png, FILE-2.png, ...",
+                         "phi_ap(z); several sweeps go to FILE-<curve file stem>.png (FILE-<stem>-approach.png when a file has both "
+                         "directions)",
                          &a->plot, "FILE"});
     cmd.flags.push_back({"--config",
                          "Model comparison: fit the tunnelling model of this config (mean work function, gap offset, "

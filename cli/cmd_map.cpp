@@ -13,6 +13,8 @@
 #include "fit_flags.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "ranges.hpp"
+#include "read_flags.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/figures/map_figures.hpp"
 #include "tipgap/grid/map.hpp"
@@ -30,9 +32,23 @@ struct map_args {
     int threads = 0;
     bool quiet = false;
     fit_flags flags;
+    read_flags read;
     double min_decades = 1.0;
     double max_relative_error = 0.1;
+    std::string range;  // --range MIN..MAX: colour scale of the barrier map
 };
+
+// --range MIN..MAX as energies (eV, meV, J); the library checks MIN < MAX.
+map_figure_options to_map_figure_options(const std::string& range) {
+    map_figure_options o;
+    if (range.empty()) return o;
+    if (range.find("..") == std::string::npos) throw_usage("--range", "expected MIN..MAX, e.g. 4.0eV..4.8eV");
+    const std::vector<double> ends = parse_range(range, dimension::energy, 2, spacing::linear, "--range");
+    o.barrier_min_J = ends.front();
+    o.barrier_max_J = ends.back();
+    naming_flags("map", flag_error::usage, [&] { o.validate(); });
+    return o;
+}
 
 // A one-line bar redrawn in place; only for a terminal.
 class progress_bar {
@@ -62,7 +78,7 @@ std::string default_output_dir(const std::string& grid) {
 }
 
 // The matrices, the quality codes and the figures, each file atomically.
-void write_maps(const barrier_map& m, const atomic_directory& dir) {
+void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure) {
     const scaling to_eV = times(1.0 / si::electron_volt);
     write_file_atomically(dir.file("apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "apparent barrier height [eV]", m.apparent_barrier_J, to_eV));
@@ -71,7 +87,9 @@ void write_maps(const barrier_map& m, const atomic_directory& dir) {
     write_file_atomically(dir.file("stderr_apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "standard error of the apparent barrier height [eV]", m.apparent_barrier_stderr_J, to_eV));
     write_file_atomically(dir.file("quality.csv"), map_quality_csv(m));
-    plot::write_figure(barrier_map_figure(m), dir.file("barrier_map.png"));
+    plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
+    plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
+    plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
     plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
 }
 
@@ -97,7 +115,9 @@ void run(const map_args& a) {
     o.min_current_decades = a.min_decades;
     o.max_relative_stderr = a.max_relative_error;
     o.read.threads = a.threads;
+    o.read.reader = to_reader_options(a.read, "map", 4);
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
+    const map_figure_options figure = to_map_figure_options(a.range);
     auto bar = std::make_shared<progress_bar>();
     if (!a.quiet && ::isatty(STDERR_FILENO)) o.read.progress = [bar](std::uint64_t d, std::uint64_t t) { (*bar)(d, t); };
 
@@ -112,8 +132,9 @@ void run(const map_args& a) {
     }
     bar->finish();
     print_warnings(m.grid.warnings, m.grid.path);
+    print_notes(m.grid.notes, m.grid.path);
     const auto t1 = std::chrono::steady_clock::now();
-    write_maps(m, dir);
+    write_maps(m, dir, figure);
     const auto t2 = std::chrono::steady_clock::now();
     const map_run run{"tipgap map", TIPGAP_VERSION, resolved_threads(o.read), std::chrono::duration<double>(t2 - t1).count(),
                       std::chrono::duration<double>(t2 - t0).count()};
@@ -138,12 +159,15 @@ command map_command() {
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
     };
+    for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);
     cmd.flags.push_back({"--min-decades", "Quality 'poor_fit' when the used points span fewer decades of current (default 1)",
                          &a->min_decades, "DECADES"});
     cmd.flags.push_back({"--max-relative-error",
                          "Quality 'poor_fit' when the standard error of the barrier exceeds this fraction of it (default 0.1)",
                          &a->max_relative_error, "FRACTION"});
+    cmd.flags.push_back({"--range", "Colour scale of barrier_map.png, MIN..MAX (e.g. 4.0eV..4.8eV; default: 1st to 99th percentile)",
+                         &a->range, "MIN..MAX"});
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;
 }

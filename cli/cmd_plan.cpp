@@ -6,6 +6,7 @@
 #include "command.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "plot_flags.hpp"
 #include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
@@ -23,11 +24,13 @@ struct plan_args {
     int threads = 0;
     output_format format = output_format::table;
     uncertainty_options uncertainty;
+    plot_flags plot;
 };
 
 void run(const plan_args& a) {
     const config c = load_config_or_default(a.config_path);
     if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
+    const figure_options figure = to_figure_options(a.plot);
     a.uncertainty.validate();
     const auto currents = parse_range(a.current, dimension::current, a.points, spacing::logarithmic, "--current");
     const auto biases = parse_range(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
@@ -60,7 +63,7 @@ void run(const plan_args& a) {
         for (const auto& x : u)
             if (!x.names.empty() && names.empty()) names = x.names;
     write_output(a.output, render(a.format, plan_columns(names), rows, frame));
-    if (!a.plot_path.empty()) plot::write_figure(plan_figure(c, points, a.threads), a.plot_path);
+    if (!a.plot_path.empty()) plot::write_figure(plan_figure(c, points, a.threads, figure), a.plot_path);
 }
 
 }  // namespace
@@ -79,7 +82,7 @@ command plan_command() {
         {"--threads", "Worker threads (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
         {"--plot", "Also write a figure: FILE.png, FILE.svg or FILE.pdf", &a->plot_path},
     };
-    for (auto list : {uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
+    for (auto list : {plot_flag_list(a->plot, true), uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
         cmd.flags.insert(cmd.flags.end(), list.begin(), list.end());
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;

@@ -5,6 +5,7 @@
 #include "command.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "plot_flags.hpp"
 #include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
@@ -22,11 +23,13 @@ struct predict_args {
     int threads = 0;
     output_format format = output_format::table;
     uncertainty_options uncertainty;
+    plot_flags plot;
 };
 
 void run(const predict_args& a) {
     const config c = load_config_or_default(a.config_path);
     if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
+    const figure_options figure = to_figure_options(a.plot);
     a.uncertainty.validate();
     const auto gaps = parse_range(a.gap, dimension::length, a.points, spacing::linear, "--gap");
     const auto biases = parse_range(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
@@ -53,7 +56,7 @@ void run(const predict_args& a) {
     frame.before_table = config_line(c) + "\n" + uncertainty_line(u, " of I");
     const auto columns = predict_columns(with_u ? with_u->names : std::vector<std::string>{});
     write_output(a.output, render(a.format, columns, rows, frame));
-    if (!a.plot_path.empty()) plot::write_figure(predict_figure(c, gaps, biases, results, a.threads), a.plot_path);
+    if (!a.plot_path.empty()) plot::write_figure(predict_figure(c, gaps, biases, results, a.threads, figure), a.plot_path);
 }
 
 }  // namespace
@@ -69,7 +72,7 @@ command predict_command() {
         {"--threads", "Worker threads (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
         {"--plot", "Also write a figure: FILE.png, FILE.svg or FILE.pdf", &a->plot_path},
     };
-    for (auto list : {uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
+    for (auto list : {plot_flag_list(a->plot, false), uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
         cmd.flags.insert(cmd.flags.end(), list.begin(), list.end());
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;

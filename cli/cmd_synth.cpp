@@ -9,6 +9,7 @@
 #include "command.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "synth_zv.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
@@ -19,7 +20,7 @@ namespace {
 struct synth_args {
     std::string out, truth, config_path;
     std::string tip_material, sample_material, tip_wf, sample_wf, temperature;
-    std::string bias = "100mV", gap = "0.45nm..1nm", gap_at_z0, sweeps = "retract";
+    std::string bias, gap = "0.45nm..1nm", gap_at_z0, sweeps = "retract";
     std::size_t points = 121;
     std::string noise, baseline, saturation, drift, jump_gap;
     double contact_conductance = 1.0;
@@ -27,6 +28,8 @@ struct synth_args {
     std::string tip_label, sample_label;
     std::string grid, pitch = "1nm", pattern = "disc", disc_radius, disc_centre, disc_wf = "4.3eV";
     std::size_t points_per_curve = 128;
+    bool zv = false;  // --zv: a constant-current z(V) trace instead (synth_zv.cpp); bias empty: 100mV or 4V..10V
+    std::string current, z_noise;
 };
 
 config synth_config(const synth_args& a) {
@@ -47,7 +50,7 @@ config synth_config(const synth_args& a) {
 
 synth_options synth_opts(const synth_args& a) {
     synth_options o;
-    o.bias_V = flag_quantity(a.bias, dimension::voltage, "--bias");
+    o.bias_V = flag_quantity(a.bias.empty() ? "100mV" : a.bias, dimension::voltage, "--bias");
     const std::size_t dots = a.gap.find("..");
     if (dots == std::string::npos) throw_usage("--gap", fmt::format("expected a range FROM..TO, e.g. 0.45nm..1nm, got '{}'", a.gap));
     o.gap_min_m = flag_quantity(a.gap.substr(0, dots), dimension::length, "--gap");
@@ -97,6 +100,10 @@ synth_grid_options grid_opts(const synth_args& a) {
 
 void run(const synth_args& a, const std::string& line) {
     const config c = synth_config(a);
+    if (a.zv) {
+        const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
+        return run_synth_zv(c, {a.bias, a.current, a.z_noise, a.points, a.seed, a.out, truth, line});
+    }
     synth_options o = synth_opts(a);
     if (!a.grid.empty()) o.points = a.points_per_curve;
     naming_flags("synth", flag_error::usage, [&] { o.validate(c.model); });  // before any file is written
@@ -162,6 +169,10 @@ command synth_command() {
         {"--disc-radius", "Disc radius (default a quarter of the shorter side)", &a->disc_radius, "LENGTH"},
         {"--disc-centre", "Disc centre X,Y (default the grid centre)", &a->disc_centre, "X,Y"},
         {"--disc-work-function", "Sample work function inside the disc (default 4.3eV)", &a->disc_wf, "ENERGY"},
+        {"--zv", "Write a constant-current z(V) trace (exact model, with its resonances) instead: --bias FROM..TO "
+                 "(default 4V..10V), --current, --z-noise, --points, --seed", &a->zv},
+        {"--current", "--zv: setpoint current (default 1nA)", &a->current, "CURRENT"},
+        {"--z-noise", "--zv: standard deviation of white z noise, e.g. 2pm (default 0)", &a->z_noise, "LENGTH"},
     };
     cmd.run = [a](const std::string& line) { run(*a, line); };
     return cmd;

@@ -57,6 +57,7 @@ command table_command();
 command fit_command();    // decay constant and apparent barrier of measured I(z) curves
 command map_command();    // barrier-height maps of a spectroscopy grid
 command synth_command();  // synthetic curves and grids with their ground truth
+command resonances_command();  // field-emission resonances and the local work function
 command demo_command();   // the main job on the built-in config and the demo scans
 
 }  // namespace tipgap::cli

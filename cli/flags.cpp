@@ -25,10 +25,20 @@ constexpr flag_name flag_names[] = {
     {"", "window_points", "--window"},
     {"", "window_m", "--window"},
     {"", "contact_distance_m", "--contact-distance"},
+    // reader_options (fit and map)
+    {"", "delimiter", "--delimiter"},
+    {"", "columns", "--columns"},
+    {"", "z_unit", "--z-unit"},
+    {"", "current_unit", "--current-unit"},
+    {"", "xy_unit", "--xy-unit"},
+    {"", "flip_z", "--flip-z"},
+    {"", "bias_V", "--bias"},
+    {"", "temperature_K", "--temperature"},
     // map_options
     {"map", "min_current_decades", "--min-decades"},
     {"map", "max_relative_stderr", "--max-relative-error"},
     {"map", "threads", "--threads"},
+    {"map", "range", "--range"},
     // synth_options and synth_grid_options
     {"synth", "bias_V", "--bias"},
     {"synth", "gap_min_m", "--gap"},
@@ -45,6 +55,12 @@ constexpr flag_name flag_names[] = {
     {"synth", "pitch_m", "--pitch"},
     {"synth", "disc_radius_m", "--disc-radius"},
     {"synth", "disc_work_function_J", "--disc-work-function"},
+    // zv_synth_options (synth --zv)
+    {"synth", "current_A", "--current"},
+    {"synth", "z_noise_m", "--z-noise"},
+    // resonance_options
+    {"resonances", "smoothing", "--smoothing"},
+    {"resonances", "threads", "--threads"},
 };
 
 }  // namespace

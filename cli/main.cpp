@@ -14,6 +14,7 @@
 
 #include "command.hpp"
 #include "tipgap/core/error.hpp"
+#include "tipgap/core/error_line.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -66,15 +67,6 @@ void add_command(CLI::App& app, command c) {
     CLI::App* cmd = app.add_subcommand(c.name, c.description);
     for (const flag& f : c.flags) add_flag(cmd, f);
     cmd->callback([cmd, run = std::move(c.run)] { run(command_line(cmd)); });
-}
-
-// Replaces line breaks and other control bytes so that a message is always exactly one line.
-std::string one_line(std::string text) {
-    for (char& ch : text) {
-        auto u = static_cast<unsigned char>(ch);
-        if (u < 0x20 || u == 0x7F) ch = ' ';
-    }
-    return text;
 }
 
 // "tipgap predict" for a failure inside `predict`, else "tipgap".
@@ -199,10 +191,7 @@ int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
 }
 
 int report_error(const tipgap::error& e) {
-    const char* label = e.kind() == error_kind::usage       ? "usage error"
-                        : e.kind() == error_kind::no_answer ? "no answer"
-                                                            : "error";
-    std::fprintf(stderr, "tipgap: %s: %s\n", label, one_line(e.what()).c_str());
+    std::fprintf(stderr, "%s\n", error_line(e).c_str());
     return static_cast<int>(e.kind());
 }
 
@@ -221,7 +210,7 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
-    for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, demo_command})
+    for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, resonances_command, demo_command})
         add_command(app, make());
     try {
         app.parse(argc, argv);

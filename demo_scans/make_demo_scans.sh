@@ -35,3 +35,42 @@ synth --out 06_contaminated_au111.csv --gap 0.6nm..1.05nm --bias 100mV --noise 0
 # 7. The re-flashed tip on freshly cleaved graphite.
 synth --out 07_w_graphite.csv --gap 0.6nm..1nm --bias 200mV --noise 0.1pA --sample-material graphite \
       --seed 107 --tip-label "W, re-flashed" --sample-label "graphite (HOPG)"
+# 8. The same flashed tip on Au(111), recorded by the lab's older data logger, whose export is laid
+#    out otherwise: tab separated, units in parentheses, decimal commas, a time column and an
+#    auxiliary channel, no bias or temperature lines, and Z as the piezo extension (it grows as the
+#    tip approaches). Made by tipgap synth in tipgap's own layout, then converted here; the truth
+#    file is synth's with the new file name. 08_w_au111_export.read.yaml holds the reader options
+#    `tipgap demo` reads it with (the same as `tipgap fit 08_w_au111_export.tsv --columns Z,I
+#    --flip-z --bias 100mV --temperature 4.2K`).
+synth --out 08_w_au111_export.csv --gap 0.6nm..1nm --bias 100mV --noise 0.1pA --seed 108 \
+      --tip-label "W, flashed" --sample-label "Au(111)"
+LC_ALL=C awk -v OFS='\t' '
+  BEGIN { print "# synthetic curve, not a measurement, made by tipgap synth (seed 108) and converted to an export layout by demo_scans/make_demo_scans.sh" }
+  /^#/ || /^z / { next }
+  {
+    split($0, cell, ",")
+    z = cell[1]; current = cell[2]
+    Z = (z == "0.000000") ? z : "-" z   # the piezo extension: -z
+    gsub(/\./, ",", Z); gsub(/\./, ",", current)
+    if (n == 0) print "Time (ms)", "Z (nm)", "I (pA)", "Aux (V)"
+    print 50 * n++, Z, current, "0,500"
+  }' 08_w_au111_export.csv > 08_w_au111_export.tsv
+rm 08_w_au111_export.csv
+sed -i -e '1i # Converted: 08_w_au111_export.tsv holds this curve with Z = -z (the truth keeps synth'"'"'s z).' \
+       -e 's/^file: "08_w_au111_export.csv"/file: "08_w_au111_export.tsv"/' 08_w_au111_export.truth.yaml
+cat > 08_w_au111_export.read.yaml <<'YAML'
+# How tipgap demo reads 08_w_au111_export.tsv, a synthetic curve in another layout (the tab
+# delimiter, the decimal commas and the units in parentheses are detected without options):
+# tipgap fit 08_w_au111_export.tsv --columns Z,I --flip-z --bias 100mV --temperature 4.2K
+columns: [Z, I]
+flip_z: true
+bias: 100 mV
+temperature: 4.2 K
+YAML
+
+# 9. Resonances (demo_scans/resonances/): the same W tip over a silver monolayer island on Au(111),
+#    imagined with a local work function of 4.6 eV. A constant-current z(V) trace at 1 nA from 4 to
+#    10 V in 50 mV steps with 2 pm of z noise, for `tipgap resonances` (exact transmission model).
+mkdir -p resonances
+synth --zv --out resonances/08_w_ag_island_zv.csv --sample-work-function 4.6eV --current 1nA --bias 4V..10V \
+      --points 121 --z-noise 2pm --seed 108

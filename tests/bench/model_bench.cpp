@@ -31,6 +31,19 @@ void wkb_exact_4K_100mV(benchmark::State& st) { run(st, tipgap::method_kind::wkb
 void wkb_exact_4K_2V(benchmark::State& st) { run(st, tipgap::method_kind::wkb, 2.0); }
 void simmons_exact_4K_100mV(benchmark::State& st) { run(st, tipgap::method_kind::simmons, 0.1); }
 
+// J with dJ/ds and dJ/dV from one pass (what evaluate_point runs): its time over wkb_exact_4K_100mV's
+// is the cost of a predicted point in plain J evaluations.
+void j_with_slopes_wkb_100mV(benchmark::State& state) {
+    auto o = junction(tipgap::method_kind::wkb);
+    double s = 0.5e-9, acc = 0;
+    for (auto _ : state) {
+        s = s < 1.5e-9 ? s + 1.3e-12 : 0.5e-9;
+        acc += tipgap::current_density_derivatives(o, s, 0.1).d_dV_S_per_m2;
+    }
+    benchmark::DoNotOptimize(acc);
+    state.counters["passes_per_s"] = benchmark::Counter(static_cast<double>(state.iterations()), benchmark::Counter::kIsRate);
+}
+
 void evaluate_point_wkb(benchmark::State& state) {
     auto o = junction(tipgap::method_kind::wkb);
     double s = 0.5e-9;
@@ -46,5 +59,6 @@ void evaluate_point_wkb(benchmark::State& state) {
 BENCHMARK(wkb_exact_4K_100mV);
 BENCHMARK(wkb_exact_4K_2V);
 BENCHMARK(simmons_exact_4K_100mV);
+BENCHMARK(j_with_slopes_wkb_100mV);
 BENCHMARK(evaluate_point_wkb);
 BENCHMARK_MAIN();

@@ -116,7 +116,7 @@ run_scenario fit_replace fit_complete "$old_text" -- "$TIPGAP" fit "$curve" --fo
 grid="$tmp/grid.csv"
 "$TIPGAP" synth --grid 160x160 --points-per-curve 128 --out "$grid" > /dev/null
 map_files="apparent_barrier_eV.csv barrier_histogram.png barrier_map.png decay_constant_per_nm.csv quality.csv
-stderr_apparent_barrier_eV.csv summary.json"
+quality_map.png stderr_apparent_barrier_eV.csv stderr_map.png summary.json"
 map_complete() {
   local d=$1 f
   [ -d "$d" ] || return 1

@@ -14,11 +14,14 @@ scans="$TIPGAP_SOURCE_DIR/demo_scans"
 mkdir "$tmp/regen"
 cp "$scans/make_demo_scans.sh" "$tmp/regen/"
 bash "$tmp/regen/make_demo_scans.sh" "$TIPGAP"
-for f in "$scans"/*.csv "$scans"/*.truth.yaml; do
+for f in "$scans"/*.csv "$scans"/*.tsv "$scans"/*.truth.yaml "$scans"/*.read.yaml; do
   cmp -s "$f" "$tmp/regen/$(basename "$f")" || fail "$(basename "$f") does not regenerate byte-identically"
 done
-n=$(ls "$tmp/regen"/*.csv | wc -l)
-[ "$n" -eq "$(ls "$scans"/*.csv | wc -l)" ] || fail "regenerated $n curves"
+for f in "$scans"/resonances/*; do
+  cmp -s "$f" "$tmp/regen/resonances/$(basename "$f")" || fail "resonances/$(basename "$f") does not regenerate byte-identically"
+done
+n=$(ls "$tmp/regen"/*.csv "$tmp/regen"/*.tsv | wc -l)
+[ "$n" -eq "$(ls "$scans"/*.csv "$scans"/*.tsv | wc -l)" ] || fail "regenerated $n curves"
 
 # 2. The demo runs and writes its files.
 "$TIPGAP" demo --out "$tmp/demo" > "$tmp/demo.txt"
@@ -26,7 +29,10 @@ for f in prediction.csv fits.csv demo.json prediction.png fit-01_w_au111_clean.p
          fit-05_w_au111_pair-retract.png; do
   [ -s "$tmp/demo/$f" ] || fail "demo did not write $f"
 done
-grep -q "kappa inside its 95% interval for 8 of 8 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
+grep -q "kappa inside its 95% interval for 9 of 9 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
+# The file in another layout: the options it was read with, shown as `tipgap fit` takes them.
+grep -qx "note: 08_w_au111_export.tsv is in another layout, read as: tipgap fit 08_w_au111_export.tsv --columns Z,I --flip-z --bias 0.1V --temperature 4.2K" "$tmp/demo.txt" \
+  || { cat "$tmp/demo.txt"; fail "read options line"; }
 grep -q "^plan at 0.1 V (setpoint ladder):" "$tmp/demo.txt" || fail "no plan line"
 # The planned ladder: one decade of current per step, and the gap steps equal nm_per_decade
 # (within 5 %: the local slope varies along a 0.1 nm step); about 0.1 nm per decade (common practice).
@@ -52,7 +58,7 @@ doc = json.load(open(sys.argv[1])); pred = json.load(open(sys.argv[2])); scans =
 hbar = 6.62607015e-34 / (2 * math.pi); me = 9.1093837015e-31; e = 1.602176634e-19  # CODATA 2018
 assert doc["command"] == "demo" and doc["synthetic_data"] is True
 curves = doc["curves"]
-assert len(curves) == 8, len(curves)
+assert len(curves) == 9, len(curves)
 def truth_values(path):
     # The expected kappa of each sweep, read with a regex (no YAML module in Debian's python3 by default).
     text = open(path).read()
@@ -75,7 +81,10 @@ for c in curves:
     assert m["mean_work_function_eV"] > c["apparent_barrier_eV"] + 0.2, (stem, m)
 assert [c["contact"] for c in curves if "contact" in c["file"]] == ["plateau"]
 assert [c["saturation_detected"] for c in curves if "saturated" in c["file"]] == [True]
-assert doc["summary"] == {"curves_compared": 8, "kappa_within_ci": 8}, doc["summary"]
+assert doc["summary"] == {"curves_compared": 9, "kappa_within_ci": 9}, doc["summary"]
+export = [c for c in curves if c["file"].endswith("08_w_au111_export.tsv")]
+assert [c["read_options"] for c in export] == [{"columns": "Z,I", "flip_z": "true", "bias_V": "0.1V", "temperature_K": "4.2K"}], export
+assert all(c["read_options"] == {} for c in curves if c not in export)
 p = [x for x in doc["prediction"] if abs(x["gap_nm"] - 0.9) < 1e-9]
 assert len(p) == 1, [x["gap_nm"] for x in doc["prediction"]]
 q = pred["points"][0]
@@ -83,12 +92,23 @@ for key in ["current_A", "decay_constant_per_nm", "apparent_barrier_eV"]:
     assert abs(p[0][key] - q[key]) <= 1e-12 * abs(q[key]), (key, p[0][key], q[key])
 PY
 
+# The export read by `tipgap fit` with the options the demo shows gives the demo's kappa.
+"$TIPGAP" fit "$scans/08_w_au111_export.tsv" --columns Z,I --flip-z --bias 0.1V --temperature 4.2K --format json > "$tmp/export.json"
+"$TIPGAP_PYTHON" - "$tmp/export.json" "$tmp/demo/demo.json" <<'PY'
+import json, sys
+fit = json.load(open(sys.argv[1]))["curves"][0]
+demo = [c for c in json.load(open(sys.argv[2]))["curves"] if c["file"].endswith("08_w_au111_export.tsv")][0]
+assert fit["decay_constant_per_nm"] == demo["decay_constant_per_nm"], (fit["decay_constant_per_nm"], demo["decay_constant_per_nm"])
+PY
+
 # 4. PNG files are PNG: signature and an IHDR of the documented size (800 px wide, three 420 px
 #    panels plus the title band for fits).
 "$TIPGAP" fit "$scans/01_w_au111_clean.csv" --plot "$tmp/one.png" --config default > "$tmp/fit.txt"
 "$TIPGAP" fit "$scans/05_w_au111_pair.csv" --plot "$tmp/pair.png" > /dev/null
-[ -e "$tmp/pair-1.png" ] && [ -e "$tmp/pair-2.png" ] && [ ! -e "$tmp/pair.png" ] || fail "pair plots not numbered"
-"$TIPGAP_PYTHON" - "$tmp/one.png" "$tmp/pair-1.png" "$tmp/demo/prediction.png" "$tmp/demo/fit-04_w_au111_contact.png" <<'PY'
+# Several sweeps: named after the input stem and the direction (issue 15).
+[ -e "$tmp/pair-05_w_au111_pair-approach.png" ] && [ -e "$tmp/pair-05_w_au111_pair-retract.png" ] && [ ! -e "$tmp/pair.png" ] ||
+    fail "pair plots not named after the input stem and direction"
+"$TIPGAP_PYTHON" - "$tmp/one.png" "$tmp/pair-05_w_au111_pair-approach.png" "$tmp/demo/prediction.png" "$tmp/demo/fit-04_w_au111_contact.png" <<'PY'
 import struct, sys, zlib
 for path in sys.argv[1:]:
     d = open(path, "rb").read()

@@ -19,14 +19,14 @@ fail() { echo "FAIL: $*" >&2; exit 1; }
 head -1 "$tmp/out1.txt" | grep -qx "tipgap map: 16 x 16 pixels, 16384 samples -> $tmp/t1" || fail "summary line: $(head -1 "$tmp/out1.txt")"
 grep -qx "  quality: ok 256, too_few_points 0, saturated 0, contact 0, poor_fit 0" "$tmp/out1.txt" || fail "quality line: $(cat "$tmp/out1.txt")"
 for f in apparent_barrier_eV.csv decay_constant_per_nm.csv stderr_apparent_barrier_eV.csv quality.csv summary.json \
-         barrier_map.png barrier_histogram.png; do
+         barrier_map.png barrier_histogram.png stderr_map.png quality_map.png; do
   [ -s "$tmp/t1/$f" ] || fail "missing $f"
 done
-[ "$(ls -A "$tmp/t1" | wc -l)" -eq 7 ] || fail "extra files in the output: $(ls -A "$tmp/t1")"
+[ "$(ls -A "$tmp/t1" | wc -l)" -eq 9 ] || fail "extra files in the output: $(ls -A "$tmp/t1")"
 # Identical results for 1 and 2 threads: every matrix byte for byte, the figures too, and the summary
 # apart from its run-dependent entries (threads, timings).
 for f in apparent_barrier_eV.csv decay_constant_per_nm.csv stderr_apparent_barrier_eV.csv quality.csv \
-         barrier_map.png barrier_histogram.png; do
+         barrier_map.png barrier_histogram.png stderr_map.png quality_map.png; do
   cmp -s "$tmp/t1/$f" "$tmp/t2/$f" || fail "$f differs between --threads 1 and 2"
 done
 "$TIPGAP_PYTHON" - "$tmp" <<'PY'
@@ -78,8 +78,17 @@ assert s["quality_counts"] == {"ok": 256, "too_few_points": 0, "saturated": 0, "
 assert s["quality_codes"] == {"0": "ok", "1": "too_few_points", "2": "saturated", "3": "contact", "4": "poor_fit"}
 PY
 
+# --range sets the barrier map's colours; a reversed range is a usage error naming the flag (issue 15).
+"$TIPGAP" map "$tmp/grid.csv" --output-dir "$tmp/ranged" --range 2.8eV..4.2eV --quiet || fail "--range"
+set +e
+"$TIPGAP" map "$tmp/grid.csv" --output-dir "$tmp/bad" --range 4.2eV..2.8eV --quiet 2> "$tmp/range_err.txt"
+rc=$?
+set -e
+[ "$rc" -eq 2 ] || fail "reversed --range: exit $rc"
+grep -qx "tipgap: usage error: --range: MIN must be below MAX; got 4.2..2.8 eV" "$tmp/range_err.txt" || fail "range message: $(cat "$tmp/range_err.txt")"
+
 # PNG files really are PNG images.
-for f in barrier_map.png barrier_histogram.png; do
+for f in barrier_map.png barrier_histogram.png stderr_map.png quality_map.png; do
   [ "$(head -c 8 "$tmp/t1/$f" | od -An -tx1 | tr -d ' \n')" = "89504e470d0a1a0a" ] || fail "$f is not a PNG"
 done
 

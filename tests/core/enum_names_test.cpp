@@ -62,7 +62,8 @@ TEST(enum_names, names_as_written_in_files_and_output) {
 
 TEST(enum_names, message_lists_are_the_accepted_names_in_order) {
     EXPECT_EQ(accepted_names<image_kind>(), "exact, approximate or none");
-    EXPECT_EQ(accepted_names<method_kind>(), "wkb or simmons");
+    // Issue 12 added method: exact (the same message as the config reader and the Python module give).
+    EXPECT_EQ(accepted_names<method_kind>(), "wkb, simmons or exact");
     EXPECT_EQ(accepted_names<geometry_kind>(), "planar, paraboloid or contact_anchored");
     EXPECT_EQ(accepted_names<fit_model>(), "linear or offset");
     EXPECT_EQ(accepted_names<synth_sweeps>(), "retract, approach or approach_retract");

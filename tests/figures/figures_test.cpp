@@ -70,8 +70,9 @@ TEST(figures, predict_grid_colour_map_and_svg) {
     const plot::figure f = predict_figure(c, gaps, biases, r, 1);
     const auto& m = std::get<plot::colour_map_panel>(f.panels.at(0));
     ASSERT_EQ(m.z.size(), 9u);
-    for (std::size_t i = 0; i < 9; ++i) EXPECT_DOUBLE_EQ(m.z[i], std::log10(std::abs(r[i].current_A)));
-    EXPECT_EQ(m.colour_bar_label, "log₁₀ (|I| / 1 A)");
+    // In the data's unit since issue 15: the largest current here is a few hundred nA.
+    for (std::size_t i = 0; i < 9; ++i) EXPECT_DOUBLE_EQ(m.z[i], std::log10(std::abs(r[i].current_A) * 1e9));
+    EXPECT_EQ(m.colour_bar_label, "log₁₀(|I| / 1 nA)");
     EXPECT_DOUBLE_EQ(m.x[1], 0.7);
 
     const fs::path svg = temp_file("grid.svg");

@@ -377,12 +377,11 @@ TEST(error_format, wild_outlier_curve_is_refused_not_crashed) {
         FAIL() << "no throw";
     } catch (const error& e) {
         EXPECT_EQ(e.kind(), error_kind::input);
-        // The sweep after the outlier (rows 9-15) keeps no point above the estimated noise floor.
-        EXPECT_EQ(std::string(e.what()).rfind("w.csv: unknown sweep from row 9: only 0 of 7 points lie above the noise "
-                                              "floor of ",
-                                              0),
-                  0u)
-            << e.what();
+        // The sweep before the outlier (rows 1-8) rises with z: no decay constant to report (issue 10;
+        // before, it was reported negative and the next sweep was refused for its noise floor).
+        EXPECT_EQ(std::string(e.what()), "w.csv: retract sweep from row 1: |I| does not fall with z (fitted decay constant "
+                                         "-39 /nm): no barrier height can be given; z must grow as the tip retracts (if "
+                                         "it grows as the tip approaches, read the file with --flip-z)");
     }
 }
 
@@ -395,9 +394,12 @@ TEST(error_format, singular_reweighting_keeps_a_finite_fit) {
         "0.05,0.183940\n0.06,0.108595\n7.07,0.123298\n0.18,0.100948\n0.09,0.082649\n0.20,0.067668\n"
         "0.11,0.055401\n0.12,0.045359\n0.13,0.037137\n0.1419,0.0100\n0.,.910004365\n0.03,0.335160\n"
         "0.03,8.274406\n0.04,01105\n";
-    const std::vector<fit_result> results = fit_curve(parse_curve_csv(text, "s.csv"), fit_options{});
-    ASSERT_EQ(results.size(), 2u);
-    for (const fit_result& r : results) {
+    // Sweep by sweep: fit_curve refuses the first sweep's negative decay constant (issue 10), and
+    // what this guards is the fit of each sweep.
+    const measured_curve c = parse_curve_csv(text, "s.csv");
+    ASSERT_EQ(c.sweeps.size(), 2u);
+    for (const curve_sweep& s : c.sweeps) {
+        const fit_result r = fit_sweep(s, std::nan(""), fit_options{});
         EXPECT_TRUE(std::isfinite(r.decay_constant_per_m));
         EXPECT_TRUE(std::isfinite(r.decay_constant_stderr_per_m));
         EXPECT_GT(r.decay_constant_stderr_per_m, 0.0);

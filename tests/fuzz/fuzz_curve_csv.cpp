@@ -1,7 +1,9 @@
-// libFuzzer target: the curve CSV reader (tipgap/curve_io.hpp), and the fitter on what it accepts.
+// libFuzzer target: the curve reader (tipgap/curve_io.hpp) with reader options taken from the
+// input's last byte (delimiter, columns, flip_z, bias; fuzz_common.hpp), and the fitter on what it
+// accepts.
 // Property: the reader returns a curve whose values are finite, with equal-length columns and
-// sweeps that partition the rows, or throws tipgap::error; the fitter returns finite numbers or
-// throws tipgap::error.
+// sweeps that partition the rows, or throws tipgap::error; the fitter returns finite numbers (a
+// positive decay constant) or throws tipgap::error.
 #include <cmath>
 #include <cstdint>
 #include <cstdio>
@@ -13,9 +15,10 @@
 #include "tipgap/fit/fit.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
-    const std::string_view text(reinterpret_cast<const char*>(data), size);
+    std::string_view text(reinterpret_cast<const char*>(data), size);
+    const tipgap::reader_options options = tipgap::fuzz::options_from_last_byte(text, 2);
     tipgap::fuzz::expect_clean([&] {
-        const tipgap::measured_curve c = tipgap::parse_curve_csv(text, "fuzz.csv");
+        const tipgap::measured_curve c = tipgap::parse_curve_csv(text, "fuzz.csv", options);
         if (c.z_m.size() != c.current_A.size() || c.z_m.size() < 3) std::abort();
         for (std::size_t i = 0; i < c.z_m.size(); ++i) {
             if (!std::isfinite(c.z_m[i]) || !std::isfinite(c.current_A[i])) std::abort();
@@ -29,7 +32,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
         // A curve the reader accepts goes on to the fitter: it must give finite numbers or refuse
         // with tipgap::error (a sweep that is too short, all below the noise floor, no spread in z).
         for (const tipgap::fit_result& r : tipgap::fit_curve(c, tipgap::fit_options{})) {
-            if (!std::isfinite(r.decay_constant_per_m) || !std::isfinite(r.apparent_barrier_J) ||
+            if (!(r.decay_constant_per_m > 0.0) || !std::isfinite(r.decay_constant_per_m) || !std::isfinite(r.apparent_barrier_J) ||
                 !std::isfinite(r.decay_constant_stderr_per_m)) {
                 std::fprintf(stderr, "non-finite fit: kappa %g, phi %g, stderr %g\n", r.decay_constant_per_m,
                              r.apparent_barrier_J, r.decay_constant_stderr_per_m);

@@ -148,7 +148,8 @@ TEST(curve_io, malformed_files_give_exact_messages) {
               "followed by data rows");
     EXPECT_EQ(message_of("# bias: 1 V\n0.1,2\n0.2,1\n"),
               "c.csv:2:1: no header row: the first row holds numbers; expected a header such as 'z [nm],current "
-              "[nA]' before the data");
+              "[nA]' before the data (or, for a file without a header, the columns by index with their units: "
+              "--columns 1,2 --z-unit nm --current-unit pA)");
     EXPECT_EQ(message_of("z [nm],current [nV]\n"),
               "c.csv:1:8: unknown unit 'nV' in 'current [nV]'; expected a current in A, mA, uA, nA, pA, fA");
     EXPECT_EQ(message_of("z [furlong],current [nA]\n"),

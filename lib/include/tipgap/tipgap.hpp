@@ -17,6 +17,7 @@
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/enum_names.hpp"
 #include "tipgap/core/error.hpp"
+#include "tipgap/core/error_line.hpp"
 #include "tipgap/core/units.hpp"
 
 #include "tipgap/model/barrier.hpp"
@@ -46,12 +47,15 @@
 #include "tipgap/fit/model_fit.hpp"
 
 #include "tipgap/grid/grid.hpp"
+#include "tipgap/grid/grid_arrays.hpp"
 #include "tipgap/grid/map.hpp"
 #include "tipgap/grid/map_files.hpp"
+#include "tipgap/grid/map_matrices.hpp"
 
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/io/columns.hpp"
+#include "tipgap/io/curve_arrays.hpp"
 #include "tipgap/io/curve_io.hpp"
 
 #include "tipgap/synth/synth.hpp"

@@ -9,6 +9,61 @@
 #include "core/detail/parallel.hpp"
 
 namespace tipgap {
+namespace {
+
+// The z(V) traces in <scans>/resonances/ with their resonance analysis against their truth.
+std::vector<demo_resonance> demo_resonances(const config& c, const std::string& scans, int threads) {
+    namespace fs = std::filesystem;
+    std::vector<demo_resonance> out;
+    const fs::path dir = fs::path(scans) / "resonances";
+    std::error_code ec;
+    if (!fs::is_directory(dir, ec)) return out;
+    std::vector<std::string> files;
+    for (const fs::directory_entry& e : fs::directory_iterator(dir)) {
+        if (e.is_regular_file() && e.path().extension() == ".csv") files.push_back(e.path().string());
+    }
+    std::sort(files.begin(), files.end());
+    resonance_options ro;
+    ro.threads = threads;
+    for (const std::string& f : files) {
+        demo_resonance d;
+        d.trace = std::make_shared<const bias_trace>(read_bias_trace(f));
+        d.result = analyse_resonances(c, *d.trace, ro);
+        const std::string tp = truth_path_for(f);
+        if (fs::exists(tp)) d.truth = read_zv_truth(tp);
+        if (d.truth) {
+            const double w = d.truth->sample_work_function_J;
+            d.work_function_within = w >= d.result.work_function_ci_low_J && w <= d.result.work_function_ci_high_J;
+            for (std::size_t k = 0; k < d.result.peaks.size() && k < d.truth->peaks_V.size(); ++k) {
+                d.largest_peak_error_V =
+                    std::max(d.largest_peak_error_V, std::abs(d.result.peaks[k].bias_V - d.truth->peaks_V[k]));
+            }
+        }
+        out.push_back(std::move(d));
+    }
+    return out;
+}
+
+}  // namespace
+
+namespace {
+
+// The reader options of a demo curve: its <stem>.read.yaml, or the defaults.
+reader_options reader_options_for(const std::string& curve_file) {
+    const std::filesystem::path p(curve_file);
+    const std::string path = (p.parent_path() / (p.stem().string() + ".read.yaml")).string();
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) return {};
+    reader_options o = load_reader_options(path);
+    try {
+        o.validate(2);
+    } catch (const error& e) {
+        throw_input(location{path, 0, 0, e.where().key}, e.detail());
+    }
+    return o;
+}
+
+}  // namespace
 
 demo_report run_demo(const demo_options& o) {
     namespace fs = std::filesystem;
@@ -31,14 +86,16 @@ demo_report run_demo(const demo_options& o) {
         throw_input(location{o.scans_dir, 0, 0, ""}, "the demo scans directory does not exist (use --scans DIR)");
     std::vector<std::string> files;
     for (const fs::directory_entry& e : fs::directory_iterator(o.scans_dir)) {
-        if (e.is_regular_file() && e.path().extension() == ".csv") files.push_back(e.path().string());
+        const std::string ext = e.path().extension().string();
+        if (e.is_regular_file() && (ext == ".csv" || ext == ".tsv" || ext == ".txt")) files.push_back(e.path().string());
     }
     std::sort(files.begin(), files.end());
-    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no *.csv curve files in the demo scans directory");
+    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no curve files (*.csv, *.tsv, *.txt) in the demo scans directory");
 
     const fit_options fo;  // the defaults a user gets from `tipgap fit FILE`
     for (const std::string& f : files) {
-        auto curve = std::make_shared<const measured_curve>(read_curve_csv(f));
+        const reader_options read = reader_options_for(f);
+        auto curve = std::make_shared<const measured_curve>(read_curve_csv(f, read));
         std::optional<truth_record> truth;
         const std::string tp = truth_path_for(f);
         if (fs::exists(tp)) truth = read_truth(tp);
@@ -47,6 +104,7 @@ demo_report run_demo(const demo_options& o) {
         for (std::size_t k = 0; k < fits.size(); ++k) {
             demo_curve d;
             d.curve = curve;
+            d.read = read;
             d.sweep_index = k;
             d.fit = std::move(fits[k]);
             d.truth = truth;
@@ -61,7 +119,9 @@ demo_report run_demo(const demo_options& o) {
         demo_curve& d = rep.curves[i];
         if (o.model_comparison) {
             const double bias = d.curve->metadata.bias_V ? *d.curve->metadata.bias_V : std::nan("");
-            d.model = fit_model_to_sweep(rep.cfg, d.sweep(), d.fit, bias, model_fit_options{},
+            config at_temperature = rep.cfg;  // the model at the measurement's temperature (fit_and_compare)
+            if (d.curve->metadata.temperature_K) at_temperature.model.temperature_K = *d.curve->metadata.temperature_K;
+            d.model = fit_model_to_sweep(at_temperature, d.sweep(), d.fit, bias, model_fit_options{},
                                          location{d.curve->file, 0, 0, ""});
         }
         if (d.sweep_truth) {
@@ -73,6 +133,7 @@ demo_report run_demo(const demo_options& o) {
             d.work_function_within = std::abs(d.model->mean_work_function_J - d.truth->mean_work_function_J) <= half;
         }
     });
+    if (o.resonances) rep.resonances = demo_resonances(rep.cfg, o.scans_dir, o.threads);
     return rep;
 }
 

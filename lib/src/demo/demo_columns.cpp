@@ -6,6 +6,7 @@
 
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/fit/resonance_columns.hpp"
 #include "tipgap/plan/predict_columns.hpp"
 
 namespace tipgap {
@@ -23,6 +24,13 @@ record truth_record_of(const demo_curve& d) {
     t.set("mean_work_function_eV", d.truth->mean_work_function_J / J_per_eV);
     t.set("seed", d.truth->seed);
     return t;
+}
+
+// How the file was read: the reader options that differ from the defaults (true for flip_z).
+record read_record_of(const demo_curve& d) {
+    record r;
+    for (const auto& [k, v] : settings(d.read)) r.set(k, v.empty() ? std::string("true") : v);
+    return r;
 }
 
 record model_record_of(const demo_curve& d) {
@@ -63,6 +71,7 @@ const std::vector<column<demo_curve>>& demo_curve_columns() {
         {"contact", "", [](const d& x) { return to_string(x.fit.contact.kind); }, {}, {}, in_json},
         {"saturation_detected", "", [](const d& x) { return x.fit.saturation_detected; }, {}, {}, in_json},
         {"warnings", "", [](const d& x) { return x.fit.warnings; }, {}, {}, in_json},
+        {"read_options", "", [](const d& x) { return read_record_of(x); }, {}, {}, in_json},
         {"truth", "", [no](const d& x) { return x.sweep_truth ? cell(truth_record_of(x)) : no(); }, {}, {}, in_json},
         {"truth_decay_constant_per_nm", "truth kappa",
          [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->decay_constant_expected_per_m) : no(); }, to_per_nm, fixed(3),
@@ -124,6 +133,58 @@ std::string demo_plot_name(const demo_curve& d) {
                                       : fmt::format("fit-{}.png", stem);
 }
 
+namespace {
+std::string peak_list(const std::vector<double>& v) {
+    std::string s;
+    for (double x : v) s += fmt::format("{}{:.3f}", s.empty() ? "" : " ", x);
+    return s.empty() ? "-" : s;
+}
+std::vector<double> found_peaks(const demo_resonance& d) {
+    std::vector<double> v;
+    for (const resonance_peak& p : d.result.peaks) v.push_back(p.bias_V);
+    return v;
+}
+record resonance_truth_record(const demo_resonance& d) {
+    record t;
+    t.set("sample_work_function_eV", d.truth->sample_work_function_J / J_per_eV);
+    cell::list peaks;
+    for (double v : d.truth->peaks_V) peaks.emplace_back(v);
+    t.set("peaks_V", std::move(peaks));
+    return t;
+}
+}  // namespace
+
+const std::vector<column<demo_resonance>>& demo_resonance_columns() {
+    using d = demo_resonance;
+    auto no = [] { return cell(absent{}); };
+    static const std::vector<column<d>> columns = {
+        {.key = "file", .get = [](const d& x) { return x.trace->file; }, .shown = in_data},
+        {.key = "file", .label = "file", .get = [](const d& x) { return std::filesystem::path(x.trace->file).filename().string(); },
+         .shown = in_table, .left = true},
+        {"peaks", "", [](const d& x) { return to_records(resonance_peak_columns(), resonance_peak_rows(x.result)); }, {}, {}, in_json},
+        {"peaks_V", "peaks [V]", [](const d& x) { return peak_list(found_peaks(x)); }, {}, {}, in_table},
+        {"truth_peaks_V", "truth peaks [V]", [](const d& x) { return x.truth ? peak_list(x.truth->peaks_V) : "-"; }, {}, {}, in_table},
+        {.key = "", .get = [](const d& x) { return cell(to_record(resonance_result_columns(), x.result)); }, .shown = in_json},
+        {.key = "work_function_eV", .label = "W fit [eV]", .get = [](const d& x) { return x.result.work_function_J; },
+         .scale = to_eV, .number = fixed(3), .shown = in_table,
+         .spread = [](const d& x) { return x.result.work_function_stderr_J / J_per_eV; }},
+        {"work_function_formula_eV", "W formula [eV]", [](const d& x) { return x.result.work_function_formula_J; }, to_eV, fixed(3),
+         in_table},
+        {.key = "truth_work_function_eV", .label = "truth W [eV]",
+         .get = [no](const d& x) { return x.truth ? cell(x.truth->sample_work_function_J) : no(); }, .scale = to_eV,
+         .number = fixed(3), .shown = in_table, .none = "-"},
+        {.key = "work_function_within_ci", .label = "W in 95% CI",
+         .get = [no](const d& x) { return x.truth ? cell(x.work_function_within) : no(); }, .none = "-"},
+        {"truth", "", [no](const d& x) { return x.truth ? cell(resonance_truth_record(x)) : no(); }, {}, {}, in_json},
+        {"largest_peak_error_V", "", [no](const d& x) { return x.truth ? cell(x.largest_peak_error_V) : no(); }, {}, {}, in_json},
+    };
+    return columns;
+}
+
+std::string demo_resonance_plot_name(const demo_resonance& d) {
+    return fmt::format("resonance-{}.png", std::filesystem::path(d.trace->file).stem().string());
+}
+
 record demo_document(const demo_report& r, const std::string& out_dir) {
     record j;
     j.set("command", "demo");
@@ -143,6 +204,13 @@ record demo_document(const demo_report& r, const std::string& out_dir) {
     summary.set("curves_compared", t.compared);
     summary.set("kappa_within_ci", t.kappa_within);
     j.set("summary", summary);
+    cell::list resonances;
+    for (const demo_resonance& d : r.resonances) {
+        record c = to_record(demo_resonance_columns(), d);
+        c.set("plot", (std::filesystem::path(out_dir) / demo_resonance_plot_name(d)).string());
+        resonances.emplace_back(std::move(c));
+    }
+    j.set("resonances", std::move(resonances));
     return j;
 }
 

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "core/detail/parallel.hpp"
+#include "figures/detail/current_unit.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -25,17 +26,31 @@ plot::axis ax(const std::string& label, plot::axis_scale scale = plot::axis_scal
 
 // A current unit that keeps the numbers of a linear axis between 0.1 and 1000.
 std::pair<double, const char*> current_unit(double max_abs_A) {
-    if (max_abs_A < 1e-9) return {1e12, "pA"};
-    if (max_abs_A < 1e-6) return {1e9, "nA"};
-    if (max_abs_A < 1e-3) return {1e6, "µA"};
-    return {1e3, "mA"};
+    const auto u = figures_detail::current_unit(max_abs_A);
+    return {u.per_A, u.name};
 }
 
 // "1 nA", "250 pA": a current with a prefix for labels.
 std::string current_text(double A) {
+    if (A != 0.0 && std::abs(A) < 0.9999999e-12) return fmt::format("{:g} fA", A * 1e15);  // floors
     auto [scale, unit] = current_unit(std::abs(A) * 1.0000001);
     if (std::abs(A) * scale >= 1000) return fmt::format("{:g} A", A);
     return fmt::format("{:g} {}", A * scale, unit);
+}
+
+// A log current axis starts at the floor when some current shown lies below it (points below are
+// clipped at the frame); otherwise the data set the range.
+// A series lying wholly below the floor says so in its legend entry, as it draws nothing.
+void clip_at_floor(plot::xy_panel& p, double floor_A) {
+    for (plot::series& s : p.lines) {
+        bool below = false, above = false;
+        for (double y : s.y) {
+            below = below || (y > 0 && y < floor_A);
+            above = above || y >= floor_A;
+        }
+        if (below) p.y_axis.min = floor_A;
+        if (below && !above && !s.label.empty()) s.label += fmt::format(" (below {})", current_text(floor_A));
+    }
 }
 
 std::vector<double> linspace(double a, double b, int n) {
@@ -75,7 +90,6 @@ plot::xy_panel current_gap_panel(const std::string& title) {
     p.title = title;
     p.x_axis = ax("gap s [nm]");
     p.y_axis = ax("|current| [A]", plot::axis_scale::log10);
-    p.legend = plot::legend_position::top_right;
     return p;
 }
 
@@ -84,7 +98,6 @@ plot::xy_panel barrier_gap_panel(const std::string& title) {
     p.title = title;
     p.x_axis = ax("gap s [nm]");
     p.y_axis = ax("apparent barrier height φ_ap [eV]");
-    p.legend = plot::legend_position::bottom_right;
     return p;
 }
 
@@ -104,7 +117,6 @@ plot::xy_panel current_bias_panel(const config& c, double gap_m, double v_max, i
     p.y_axis = ax(fmt::format("current I [{}]", unit));
     p.lines = {s};
     p.references = {{plot::orientation::horizontal, 0.0, ""}, {plot::orientation::vertical, 0.0, ""}};
-    p.legend = plot::legend_position::top_left;
     return p;
 }
 
@@ -147,24 +159,36 @@ plot::xy_panel plan_trace_panel(const std::vector<plan_point>& points, bool many
         t.lines.push_back(s);
     }
     t.title = many_bias ? "Constant-current trace z(V)" : "Gap against setpoint current";
-    t.legend = plot::legend_position::top_left;
     return t;
+}
+
+// The reachable point the side panels are drawn at: nearest to the asked bias, else the first.
+const plan_point* side_point(const std::vector<plan_point>& points, const std::optional<double>& bias_V) {
+    const plan_point* best = nullptr;
+    for (const auto& p : points) {
+        if (!p.reachable()) continue;
+        if (!best) best = &p;
+        if (!bias_V) break;
+        if (std::abs(p.bias_V - *bias_V) < std::abs(best->bias_V - *bias_V)) best = &p;
+    }
+    return best;
 }
 
 }  // namespace
 
-plot::figure plan_figure(const config& c, const std::vector<plan_point>& points, int threads) {
-    const plan_point* first = nullptr;
-    for (const auto& p : points)
-        if (p.reachable()) {
-            first = &p;
-            break;
-        }
+void figure_options::validate() const {
+    if (!(current_floor_A > 0) || !std::isfinite(current_floor_A))
+        throw_input(location{"", 0, 0, "current_floor"}, fmt::format("must be a current > 0 A; got {:g} A", current_floor_A));
+    if (side_bias_V && !std::isfinite(*side_bias_V)) throw_input(location{"", 0, 0, "plot_bias"}, "must be a finite bias");
+}
+
+plot::figure plan_figure(const config& c, const std::vector<plan_point>& points, int threads, const figure_options& o) {
+    o.validate();
+    const plan_point* first = side_point(points, o.side_bias_V);
     if (!first) throw error(error_kind::no_answer, "no reachable setpoint to plot");
     plot::figure f;
     f.title = figure_title("Setpoint plan", c);
 
-    // The trace or the ladder, when there is more than one point.
     bool many_bias = false, many_current = false;
     for (const auto& p : points) {
         many_bias = many_bias || p.bias_V != points.front().bias_V;
@@ -181,7 +205,7 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         }
     const gap_curve g = gap_dependence(c, V0, lo, hi, threads);
 
-    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
+    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:.4g} V", V0));
     ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
     plot::series marks{{}, {}, "planned setpoints", plot::draw_style::markers, 1};
     for (const auto& p : points)
@@ -191,9 +215,10 @@ plot::figure plan_figure(const config& c, const std::vector<plan_point>& points,
         }
     ig.lines.push_back(marks);
     ig.references.push_back(contact_line());
+    clip_at_floor(ig, o.current_floor_A);
     f.panels.push_back(ig);
 
-    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
+    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:.4g} V", V0));
     bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
     bg.references.push_back(contact_line());
     bg.references.push_back({plot::orientation::horizontal,
@@ -224,27 +249,33 @@ bool ascending(const std::vector<double>& v) {
     return true;
 }
 
-// log10 |I| over gap and bias (both lists ascending, more than one value each).
-plot::colour_map_panel prediction_map(const prediction_table& t) {
+// log10 |I| over the (gap, bias) grid (both lists ascending, more than one value each) in the
+// data's unit; cells below the floor take the darkest colour, as nothing is measured there.
+plot::colour_map_panel prediction_map(const prediction_table& t, const figure_options& o) {
     plot::colour_map_panel m;
     m.title = "log₁₀ |I| over gap and bias";
     m.x_axis = ax("gap s [nm]");
     m.y_axis = ax("sample bias V [V]");
     for (double s : t.gaps) m.x.push_back(s * 1e9);
     m.y = t.biases;
-    for (std::size_t ib = 0; ib < t.biases.size(); ++ib)
-        for (std::size_t ig = 0; ig < t.gaps.size(); ++ig) {
-            const double I = std::abs(t.at(ib, ig).current_A);
-            m.z.push_back(I > 0 ? std::log10(I) : std::numeric_limits<double>::quiet_NaN());
-        }
-    m.colour_bar_label = "log₁₀ (|I| / 1 A)";
+    double top = 0.0;
+    for (const prediction& q : t.r) top = std::max(top, std::abs(q.current_A));
+    const auto unit = figures_detail::current_unit(top);
+    bool below_floor = false;
+    for (const prediction& q : t.r) {  // bias outer, gap inner: the map's row-major order
+        const double I = std::abs(q.current_A);
+        below_floor = below_floor || (I > 0 && I < o.current_floor_A);
+        m.z.push_back(I > 0 ? std::log10(I * unit.per_A) : std::numeric_limits<double>::quiet_NaN());
+    }
+    if (below_floor) m.z_min = std::log10(o.current_floor_A * unit.per_A);
+    m.colour_bar_label = fmt::format("log₁₀(|I| / 1 {})", unit.name);
     return m;
 }
 
 // Current and apparent barrier against gap. At most five biases as lines, spread over the list.
 // At V = 0 there is no current (and predict reports the barrier from the conductance): that line
 // stays off the current panel.
-void add_gap_panels(plot::figure& f, const prediction_table& t) {
+void add_gap_panels(plot::figure& f, const prediction_table& t, const figure_options& o) {
     const std::size_t ng = t.gaps.size(), nb = t.biases.size();
     plot::xy_panel ig = current_gap_panel("Current against gap");
     plot::xy_panel bg = barrier_gap_panel("Apparent barrier height against gap");
@@ -265,12 +296,13 @@ void add_gap_panels(plot::figure& f, const prediction_table& t) {
         bg.lines.push_back(b);
     }
     ig.references.push_back(contact_line());
+    clip_at_floor(ig, o.current_floor_A);
     f.panels.push_back(ig);
     f.panels.push_back(bg);
 }
 
 // Current against bias for at most five gaps, spread over the list.
-plot::xy_panel bias_panel(const prediction_table& t) {
+plot::xy_panel bias_panel(const prediction_table& t, const figure_options& o) {
     const std::size_t ng = t.gaps.size(), nb = t.biases.size();
     plot::xy_panel ib_panel;
     ib_panel.title = "Current against bias";
@@ -300,23 +332,21 @@ plot::xy_panel bias_panel(const prediction_table& t) {
         }
         ib_panel.lines.push_back(s);
     }
-    if (log_axis) ib_panel.legend = plot::legend_position::bottom_right;
-    if (!log_axis) {
-        ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
-        ib_panel.legend = plot::legend_position::top_left;
-    }
+    if (log_axis) clip_at_floor(ib_panel, o.current_floor_A);
+    else ib_panel.references = {{plot::orientation::horizontal, 0.0, ""}};
     return ib_panel;
 }
 
 // One point: its neighbourhood in gap and bias.
-void add_point_panels(plot::figure& f, const config& c, const prediction_table& t, int threads) {
+void add_point_panels(plot::figure& f, const config& c, const prediction_table& t, int threads, const figure_options& o) {
     const double s0 = t.gaps[0], V0 = t.biases[0];
     const gap_curve g = gap_dependence(c, V0 == 0.0 ? 1e-3 : V0, std::max(0.15e-9, s0 - 0.3e-9), s0 + 0.6e-9, threads);
-    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:g} V", V0));
+    plot::xy_panel ig = current_gap_panel(fmt::format("Current against gap at {:.4g} V", V0));
     ig.lines.push_back({g.gap_nm, g.current_A, "model", plot::draw_style::line, 0});
     ig.lines.push_back({{s0 * 1e9}, {std::abs(t.r[0].current_A)}, "this point", plot::draw_style::markers, 1});
     ig.references.push_back(contact_line());
-    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:g} V", V0));
+    clip_at_floor(ig, o.current_floor_A);
+    plot::xy_panel bg = barrier_gap_panel(fmt::format("Apparent barrier height against gap at {:.4g} V", V0));
     bg.lines.push_back({g.gap_nm, g.barrier_eV, "from d ln|I|/ds", plot::draw_style::line, 0});
     f.panels.push_back(ig);
     f.panels.push_back(bg);
@@ -326,17 +356,18 @@ void add_point_panels(plot::figure& f, const config& c, const prediction_table& 
 }  // namespace
 
 plot::figure predict_figure(const config& c, const std::vector<double>& gaps, const std::vector<double>& biases,
-                            const std::vector<prediction>& r, int threads) {
+                            const std::vector<prediction>& r, int threads, const figure_options& o) {
+    o.validate();
     if (r.size() != gaps.size() * biases.size() || r.empty())
         throw_input({}, "predict_figure: the results do not match the gap and bias lists");
     plot::figure f;
     f.title = figure_title("Prediction", c);
     const prediction_table t{gaps, biases, r};
     const std::size_t ng = gaps.size(), nb = biases.size();
-    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) f.panels.push_back(prediction_map(t));
-    if (ng > 1) add_gap_panels(f, t);
-    if (nb > 1) f.panels.push_back(bias_panel(t));
-    if (ng == 1 && nb == 1) add_point_panels(f, c, t, threads);
+    if (ng > 1 && nb > 1 && ascending(gaps) && ascending(biases)) f.panels.push_back(prediction_map(t, o));
+    if (ng > 1) add_gap_panels(f, t, o);
+    if (nb > 1) f.panels.push_back(bias_panel(t, o));
+    if (ng == 1 && nb == 1) add_point_panels(f, c, t, threads, o);
     f.columns = f.panels.size() > 1 ? 2 : 1;
     return f;
 }

@@ -5,7 +5,10 @@
 #include <cmath>
 #include <filesystem>
 #include <fmt/format.h>
+#include <map>
+#include <numbers>
 
+#include "figures/detail/current_unit.hpp"
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -13,70 +16,85 @@ namespace {
 
 constexpr double per_nm = 1e9;
 constexpr std::size_t band_points = 101;
+constexpr double ln10 = std::numbers::ln10;
 
-}  // namespace
-
-std::string numbered_plot_path(const std::string& path, std::size_t index, std::size_t count) {
-    if (count <= 1) return path;
-    std::filesystem::path p(path);
-    return (p.parent_path() / fmt::format("{}-{}{}", p.stem().string(), index + 1, p.extension().string())).string();
-}
-
-namespace {
+// The fitted curve and its bands, in ln(|I| / 1 A), over the used z range.
+struct fitted_curve {
+    std::vector<double> z_m, ln_fit, confidence_half, prediction_half;
+};
 
 // ln|I| of the fitted model at z. The offset model fits the current with the sign of the signal;
 // offset_A carries the sign of the current, so |I| = I0 e^(-2κ(z - z_ref)) + sign · offset.
-struct fitted_ln_current {
-    const fit_result& fit;
-    double sign = 1.0;
-
-    fitted_ln_current(const curve_sweep& sweep, const fit_result& f) : fit(f) {
-        double sign_sum = 0.0;
-        for (std::size_t i : fit.used_rows) sign_sum += sweep.current_A[i];
-        sign = sign_sum < 0.0 ? -1.0 : 1.0;
+double fitted_ln(const fit_result& fit, double sign, double z) {
+    if (fit.model == fit_model::offset) {
+        const double i = fit.prefactor_A * std::exp(-2.0 * fit.decay_constant_per_m * (z - fit.z_ref_m)) + sign * fit.offset_A;
+        return i > 0 ? std::log(i) : NAN;
     }
-    double operator()(double z) const {
-        if (fit.model == fit_model::offset) {
-            const double i = fit.prefactor_A * std::exp(-2.0 * fit.decay_constant_per_m * (z - fit.z_ref_m)) +
-                             sign * fit.offset_A;
-            return i > 0 ? std::log(i) : NAN;
-        }
-        return fit.line.intercept + fit.line.slope * z;
-    }
-};
+    return fit.line.intercept + fit.line.slope * z;
+}
 
-// The fitted line over the used z range and, for the linear model, its confidence band.
-void add_fit_line(const curve_sweep& sweep, const fit_result& fit, const fitted_ln_current& fitted,
-                  plot::xy_panel& top) {
-    const double eV = si::electron_volt;
+double signal_sign(const curve_sweep& sweep, const fit_result& fit) {
+    double sign_sum = 0.0;
+    for (std::size_t i : fit.used_rows) sign_sum += sweep.current_A[i];
+    return sign_sum < 0.0 ? -1.0 : 1.0;
+}
+
+// Bands of the linear model (the offset model draws its curve only). The confidence band of the
+// mean is t·sqrt(var(a + b z)) from the line's covariance; the band expected to hold 95 % of the
+// points adds the scatter of the points about the line, taken as the RMS residual in ln|I| (the
+// usual prediction interval of a straight-line fit, e.g. Draper & Smith, Applied Regression
+// Analysis, 3rd ed., eq. 1.4.7, with s replaced by the unweighted RMS so that it holds for
+// weighted fits too).
+fitted_curve fitted_with_bands(const curve_sweep& sweep, const fit_result& fit) {
     double z_lo = INFINITY, z_hi = -INFINITY;
     for (std::size_t i : fit.used_rows) {
         z_lo = std::min(z_lo, sweep.z_m[i]);
         z_hi = std::max(z_hi, sweep.z_m[i]);
     }
-    plot::series line{{}, {}, fmt::format("{} fit: φ_ap = {:.3f} ± {:.3f} eV", to_string(fit.model),
-                                          fit.apparent_barrier_J / eV, fit.apparent_barrier_stderr_J / eV),
-                      plot::draw_style::line, 1};
-    plot::band band{{}, {}, {}, fmt::format("{:.0f} % band", 100.0 * fit.confidence_level), 1};
-    for (std::size_t k = 0; k < band_points; ++k) {
+    const double sign = signal_sign(sweep, fit);
+    fitted_curve c;
+    for (std::size_t k = 0; k < band_points && z_hi >= z_lo; ++k) {
         const double z = z_lo + (z_hi - z_lo) * static_cast<double>(k) / (band_points - 1);
-        line.x.push_back(z * per_nm);
-        line.y.push_back(fitted(z));
-        if (fit.model == fit_model::linear) {
-            const double var = fit.line.intercept_stderr * fit.line.intercept_stderr +
-                               z * z * fit.line.slope_stderr * fit.line.slope_stderr + 2.0 * z * fit.line.covariance;
-            const double half = fit.t_quantile * std::sqrt(std::max(var, 0.0));
-            band.x.push_back(z * per_nm);
-            band.y_low.push_back(line.y.back() - half);
-            band.y_high.push_back(line.y.back() + half);
-        }
+        c.z_m.push_back(z);
+        c.ln_fit.push_back(fitted_ln(fit, sign, z));
+        if (fit.model != fit_model::linear) continue;
+        const double var = fit.line.intercept_stderr * fit.line.intercept_stderr +
+                           z * z * fit.line.slope_stderr * fit.line.slope_stderr + 2.0 * z * fit.line.covariance;
+        c.confidence_half.push_back(fit.t_quantile * std::sqrt(std::max(var, 0.0)));
+        c.prediction_half.push_back(fit.t_quantile * std::sqrt(std::max(var, 0.0) + fit.residual_rms_ln * fit.residual_rms_ln));
     }
-    top.lines.push_back(line);
-    if (!band.x.empty()) top.bands.push_back(band);
+    return c;
 }
 
-// Top panel: the points (used and not used), the fit with its band, noise floor and contact.
-plot::xy_panel data_panel(const curve_sweep& sweep, const fit_result& fit, const fitted_ln_current& fitted) {
+// Bands around `centre` (per point of c; log10 units): the wide grey one under the narrow tint.
+std::vector<plot::band> bands_about(const fitted_curve& c, const std::vector<double>& centre, double level) {
+    if (c.confidence_half.empty()) return {};
+    plot::band wide{{}, {}, {}, fmt::format("{:.0f} % of points", 100.0 * level), 1, plot::band_fill::grey};
+    plot::band narrow{{}, {}, {}, fmt::format("{:.0f} % confidence of the fit", 100.0 * level), 1, plot::band_fill::tint};
+    for (std::size_t k = 0; k < c.z_m.size(); ++k) {
+        const double x = c.z_m[k] * per_nm;
+        wide.x.push_back(x);
+        narrow.x.push_back(x);
+        wide.y_low.push_back(centre[k] - c.prediction_half[k] / ln10);
+        wide.y_high.push_back(centre[k] + c.prediction_half[k] / ln10);
+        narrow.y_low.push_back(centre[k] - c.confidence_half[k] / ln10);
+        narrow.y_high.push_back(centre[k] + c.confidence_half[k] / ln10);
+    }
+    return {wide, narrow};
+}
+
+// The unit of the current axis: from the largest |I| drawn.
+figures_detail::current_unit_choice unit_for(const curve_sweep& sweep) {
+    double m = 0.0;
+    for (double I : sweep.current_A)
+        if (std::isfinite(I)) m = std::max(m, std::abs(I));
+    return figures_detail::current_unit(m);
+}
+
+// Top panel: the points (used and not used), the fit with its bands, noise floor and contact.
+plot::xy_panel current_panel(const curve_sweep& sweep, const fit_result& fit, const fitted_curve& c,
+                             const figures_detail::current_unit_choice& unit) {
+    const double eV = si::electron_volt, shift = std::log10(unit.per_A);
     std::vector<bool> used(sweep.z_m.size(), false);
     for (std::size_t i : fit.used_rows) used[i] = true;
     plot::series pts_used{{}, {}, fmt::format("used ({})", fit.used_rows.size()), plot::draw_style::markers, 0};
@@ -86,33 +104,44 @@ plot::xy_panel data_panel(const curve_sweep& sweep, const fit_result& fit, const
         if (!(a > 0.0)) continue;
         plot::series& s = used[i] ? pts_used : pts_unused;
         s.x.push_back(sweep.z_m[i] * per_nm);
-        s.y.push_back(std::log(a));
+        s.y.push_back(std::log10(a) + shift);
+    }
+    plot::series line{{}, {}, fmt::format("{} fit: φ_ap = {:.3f} ± {:.3f} eV", to_string(fit.model),
+                                          fit.apparent_barrier_J / eV, fit.apparent_barrier_stderr_J / eV),
+                      plot::draw_style::line, 1};
+    for (std::size_t k = 0; k < c.z_m.size(); ++k) {
+        line.x.push_back(c.z_m[k] * per_nm);
+        line.y.push_back(c.ln_fit[k] / ln10 + shift);
     }
     plot::xy_panel top;
-    top.title = "ln|I| against z";
+    top.title = "log₁₀|I| against z";
     top.x_axis.label = "z [nm]";
-    top.y_axis.label = "ln(|I| / 1 A)";
-    top.lines = {pts_used};
-    if (!pts_unused.x.empty()) top.lines.push_back(pts_unused);
-    add_fit_line(sweep, fit, fitted, top);
-    if (fit.noise_floor_A > 0) top.references.push_back({plot::orientation::horizontal, std::log(fit.noise_floor_A), "noise floor"});
+    top.y_axis.label = fmt::format("log₁₀(|I| / 1 {})", unit.name);
+    top.lines = {pts_used, pts_unused, line};
+    if (pts_unused.x.empty()) top.lines.erase(top.lines.begin() + 1);
+    top.bands = bands_about(c, line.y, fit.confidence_level);
+    if (fit.noise_floor_A > 0)
+        top.references.push_back({plot::orientation::horizontal, std::log10(fit.noise_floor_A) + shift, "noise floor"});
     if (fit.contact.kind != contact_kind::none)
         top.references.push_back({plot::orientation::vertical, fit.contact.z_m * per_nm, fmt::format("contact ({})", to_string(fit.contact.kind))});
     return top;
 }
 
-// Middle panel: residuals of the used points against the fit.
-plot::xy_panel residual_panel(const curve_sweep& sweep, const fit_result& fit, const fitted_ln_current& fitted) {
+// Middle panel: residuals of the used points against the fit, with the bands about zero.
+plot::xy_panel residual_panel(const curve_sweep& sweep, const fit_result& fit, const fitted_curve& c) {
     plot::xy_panel mid;
     mid.title = "residuals of the used points";
     mid.x_axis.label = "z [nm]";
-    mid.y_axis.label = "ln|I| − fit";
+    mid.y_axis.label = "log₁₀|I| − fit";
+    const double sign = signal_sign(sweep, fit);
     plot::series res{{}, {}, "data − fit", plot::draw_style::markers, 0};
     for (std::size_t i : fit.used_rows) {
         res.x.push_back(sweep.z_m[i] * per_nm);
-        res.y.push_back(std::log(std::abs(sweep.current_A[i])) - fitted(sweep.z_m[i]));
+        res.y.push_back((std::log(std::abs(sweep.current_A[i])) - fitted_ln(fit, sign, sweep.z_m[i])) / ln10);
     }
     mid.lines.push_back(res);
+    // At this scale the bands show their true width, which is thinner than a line above.
+    mid.bands = bands_about(c, std::vector<double>(c.z_m.size(), 0.0), fit.confidence_level);
     mid.references.push_back({plot::orientation::horizontal, 0.0, ""});
     return mid;
 }
@@ -138,13 +167,12 @@ plot::xy_panel profile_panel(const fit_result& fit) {
         bottom.bands.push_back(prof_band);
     }
     bottom.references.push_back({plot::orientation::horizontal, fit.apparent_barrier_J / eV, "whole-range fit"});
-    bottom.legend = plot::legend_position::bottom_right;
     return bottom;
 }
 
-// The model comparison in all three panels: its ln I(z), its residuals and its φ_ap(z).
-void add_model_fit(const curve_sweep& sweep, const fit_result& fit, const model_fit_result& model,
-                   plot::xy_panel& top, plot::xy_panel& mid, plot::xy_panel& bottom) {
+// The model comparison's curve, residuals and φ_ap(z) added to the three panels.
+void add_model(const curve_sweep& sweep, const fit_result& fit, const model_fit_result& model, double shift,
+               plot::xy_panel& top, plot::xy_panel& mid, plot::xy_panel& bottom) {
     const double eV = si::electron_volt;
     plot::series m{{}, {}, fmt::format("model fit: mean work function {:.3f} ± {:.3f} eV", model.mean_work_function_J / eV,
                                        model.mean_work_function_stderr_J / eV),
@@ -153,7 +181,7 @@ void add_model_fit(const curve_sweep& sweep, const fit_result& fit, const model_
     plot::series mp{{}, {}, "model φ_ap(z)", plot::draw_style::line, 2};
     for (std::size_t k = 0; k < model.z_m.size(); ++k) {
         m.x.push_back(model.z_m[k] * per_nm);
-        m.y.push_back(model.ln_current_fit[k]);
+        m.y.push_back(model.ln_current_fit[k] / ln10 + shift);
         if (k > 0 && model.z_m[k] > model.z_m[k - 1]) {
             const double slope = (model.ln_current_fit[k] - model.ln_current_fit[k - 1]) / (model.z_m[k] - model.z_m[k - 1]);
             mp.x.push_back(0.5 * (model.z_m[k] + model.z_m[k - 1]) * per_nm);
@@ -165,7 +193,7 @@ void add_model_fit(const curve_sweep& sweep, const fit_result& fit, const model_
     std::sort(rows.begin(), rows.end(), [&](std::size_t a, std::size_t b) { return sweep.z_m[a] < sweep.z_m[b]; });
     for (std::size_t k = 0; k < rows.size() && k < model.z_m.size(); ++k) {
         mr.x.push_back(sweep.z_m[rows[k]] * per_nm);
-        mr.y.push_back(std::log(std::abs(sweep.current_A[rows[k]])) - model.ln_current_fit[k]);
+        mr.y.push_back((std::log(std::abs(sweep.current_A[rows[k]])) - model.ln_current_fit[k]) / ln10);
     }
     top.lines.push_back(m);
     mid.lines.push_back(mr);
@@ -174,13 +202,40 @@ void add_model_fit(const curve_sweep& sweep, const fit_result& fit, const model_
 
 }  // namespace
 
+std::string numbered_plot_path(const std::string& path, std::size_t index, std::size_t count) {
+    if (count <= 1) return path;
+    std::filesystem::path p(path);
+    return (p.parent_path() / fmt::format("{}-{}{}", p.stem().string(), index + 1, p.extension().string())).string();
+}
+
+std::vector<std::string> fit_plot_paths(const std::string& path, const std::vector<fit_plot_source>& sources) {
+    if (sources.size() <= 1) return std::vector<std::string>(sources.size(), path);
+    const std::filesystem::path p(path);
+    std::map<std::string, std::size_t> per_file, taken;
+    for (const fit_plot_source& s : sources) ++per_file[s.file];
+    std::vector<std::string> out;
+    for (const fit_plot_source& s : sources) {
+        std::string name = fmt::format("{}-{}", p.stem().string(), std::filesystem::path(s.file).stem().string());
+        if (per_file[s.file] > 1) name += fmt::format("-{}", to_string(s.direction));
+        const std::size_t seen = taken[name]++;
+        if (seen > 0) name += fmt::format("-{}", seen + 1);
+        out.push_back((p.parent_path() / (name + p.extension().string())).string());
+    }
+    return out;
+}
+
+std::string fit_plot_title(const fit_plot_source& source) {
+    return fmt::format("{} ({})", std::filesystem::path(source.file).filename().string(), to_string(source.direction));
+}
+
 plot::figure make_fit_figure(const curve_sweep& sweep, const fit_result& fit, const model_fit_result* model,
                              const std::string& title) {
-    const fitted_ln_current fitted(sweep, fit);
-    plot::xy_panel top = data_panel(sweep, fit, fitted);
-    plot::xy_panel mid = residual_panel(sweep, fit, fitted);
+    const figures_detail::current_unit_choice unit = unit_for(sweep);
+    const fitted_curve c = fitted_with_bands(sweep, fit);
+    plot::xy_panel top = current_panel(sweep, fit, c, unit);
+    plot::xy_panel mid = residual_panel(sweep, fit, c);
     plot::xy_panel bottom = profile_panel(fit);
-    if (model != nullptr && model->z_m.size() >= 2) add_model_fit(sweep, fit, *model, top, mid, bottom);
+    if (model != nullptr && model->z_m.size() >= 2) add_model(sweep, fit, *model, std::log10(unit.per_A), top, mid, bottom);
 
     plot::figure f;
     f.title = title;

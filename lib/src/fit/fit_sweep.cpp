@@ -7,6 +7,7 @@
 #include <limits>
 
 #include "fit/detail/point_selection.hpp"
+#include "fit/detail/sliding_line.hpp"
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -89,39 +90,46 @@ void detail::fill_decay(fit_result& r, double kappa, double kappa_stat_se, doubl
 
 namespace {
 
-// The φ_ap(z) profile: the weighted line over each window of consecutive used points.
+// The φ_ap(z) profile: the weighted line over each window of consecutive used points, from the
+// running sums of detail::sliding_line (O(1) per window instead of one SVD each).
 std::vector<profile_point> local_profile(const fit_workspace& ws, const fit_options& opt, const contact_result& contact,
                                          std::vector<std::string>& warnings) {
     const std::vector<double>& z = ws.sweep.z;
     const std::span<const std::size_t> used(ws.used);
-    const std::span<const double> w(ws.weights);
     std::vector<profile_point> out;
     const std::size_t n = used.size();
+    if (n == 0) return out;
+    std::vector<long double> x(n), y(n), zsum(n + 1, 0.0L);  // zsum: prefix sums for the window centres
+    for (std::size_t k = 0; k < n; ++k) {
+        x[k] = z[used[k]];
+        y[k] = ws.sweep.ln_abs_current[used[k]];  // in double, as fit_line receives it
+        zsum[k + 1] = zsum[k] + z[used[k]];
+    }
+    detail::sliding_line line(std::move(x), std::move(y), ws.weights);
     auto one = [&](std::size_t begin, std::size_t end) {
-        const std::span<const std::size_t> idx = used.subspan(begin, end - begin);
+        line.move_to(begin, end);
         // A window whose points share one z (repeated piezo steps) has no slope: skip it rather
         // than report an infinite one.
-        if (!(z[idx.back()] > z[idx.front()])) return;
-        const line_fit l = svd_line(ws.sweep, idx, w.subspan(begin, end - begin));
+        if (!(z[used[end - 1]] > z[used[begin]])) return;
+        double slope = 0.0, slope_stderr = 0.0;
+        line.fit(begin, end, slope, slope_stderr);
         profile_point p;
-        double zs = 0.0;
-        for (std::size_t i : idx) zs += z[i];
-        p.z_m = zs / static_cast<double>(idx.size());
+        p.z_m = static_cast<double>((zsum[end] - zsum[begin]) / static_cast<long double>(end - begin));
         p.gap_m = contact.kind != contact_kind::none ? p.z_m + contact.gap_offset_m
                                                      : std::numeric_limits<double>::quiet_NaN();
-        p.decay_constant_per_m = -0.5 * l.slope;
-        p.decay_constant_stderr_per_m = 0.5 * l.slope_stderr;
+        p.decay_constant_per_m = -0.5 * slope;
+        p.decay_constant_stderr_per_m = 0.5 * slope_stderr;
         p.apparent_barrier_J = apparent_barrier_from_decay(p.decay_constant_per_m);
         p.apparent_barrier_stderr_J = p.decay_constant_per_m != 0.0
                                           ? 2.0 * p.apparent_barrier_J * p.decay_constant_stderr_per_m /
                                                 std::abs(p.decay_constant_per_m)
                                           : 0.0;
-        p.points = idx.size();
+        p.points = end - begin;
         out.push_back(p);
     };
     if (opt.window_points == 0 && opt.window_m > 0.0) {
-        for (std::size_t b = 0; b < n; ++b) {
-            std::size_t e = b;
+        for (std::size_t b = 0, e = 0; b < n; ++b) {
+            e = std::max(e, b);
             while (e < n && z[used[e]] <= z[used[b]] + opt.window_m) ++e;
             if (e - b >= min_window_points) one(b, e);
             if (e == n) break;
@@ -304,6 +312,14 @@ std::vector<fit_result> fit_curve(const measured_curve& curve, const fit_options
         location where{curve.file, 0, 0, ""};
         if (curve.sweeps.size() > 1) where.key = fmt::format("{} sweep from row {}", to_string(s.direction), s.first_row + 1);
         out.push_back(fit_sweep(s, bias, options, where));
+        // A decay constant <= 0 is no result to report. The readers refuse curves whose current
+        // clearly rises with z (io/orientation.hpp); this catches the rest (noise, a sweep too short).
+        if (!(out.back().decay_constant_per_m > 0.0)) {
+            throw_input(where, fmt::format("|I| does not fall with z (fitted decay constant {:.3g} /nm): no barrier height "
+                                           "can be given; z must grow as the tip retracts (if it grows as the tip "
+                                           "approaches, read the file with --flip-z)",
+                                           out.back().decay_constant_per_m * 1e-9));
+        }
     }
     return out;
 }

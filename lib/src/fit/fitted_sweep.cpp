@@ -8,6 +8,13 @@ std::vector<fitted_sweep> fit_and_compare(const measured_curve& curve, const fit
                                           const config* model_config) {
     std::vector<fit_result> results = fit_curve(curve, options);
     std::vector<fitted_sweep> out;
+    // The model at the temperature of the measurement, when the file (or the reader options) state one.
+    std::optional<config> at_curve_temperature;
+    if (model_config && curve.metadata.temperature_K) {
+        at_curve_temperature = *model_config;
+        at_curve_temperature->model.temperature_K = *curve.metadata.temperature_K;
+        model_config = &*at_curve_temperature;
+    }
     for (std::size_t k = 0; k < results.size(); ++k) {
         fitted_sweep f{&curve, &curve.sweeps[k], std::move(results[k]), std::nullopt, ""};
         if (model_config) {

@@ -7,6 +7,7 @@
 // chunks; the calling thread joins those in chunk order and visits them. Errors are rethrown in
 // chunk order, so the message is that of the first bad line in the file whatever the thread count.
 #include <algorithm>
+#include <atomic>
 #include <cerrno>
 #include <cmath>
 #include <condition_variable>
@@ -31,6 +32,7 @@
 #include "io/detail/csv_scan.hpp"
 #include "grid/detail/grid_internal.hpp"
 #include "tipgap/core/units.hpp"
+#include "tipgap/io/orientation.hpp"
 
 namespace tipgap::detail {
 namespace {
@@ -40,18 +42,22 @@ constexpr std::size_t min_chunk_bytes = 4096;
 // The columns of a grid file, in the order of `role`.
 enum class role : unsigned char { x, y, z, current, ignored };
 constexpr column_rule grid_columns[] = {
-    {"x", dimension::length, "x [nm]", true},
-    {"y", dimension::length, "y [nm]", true},
-    {"z", dimension::length, "z [nm]", true},
-    {"current", dimension::current, "current [pA]", true},
+    {"x", "", dimension::length, "x [nm]", true},
+    {"y", "", dimension::length, "y [nm]", true},
+    {"z", "", dimension::length, "z [nm]", true},
+    {"current", "I", dimension::current, "current [pA]", true},
 };
-constexpr csv_format grid_format{grid_columns, "'x [nm],y [nm],z [nm],current [pA]'"};
+constexpr csv_format grid_format{grid_columns, "'x [nm],y [nm],z [nm],current [pA]'",
+                                 "--columns 1,2,3,4 --xy-unit nm --z-unit nm --current-unit pA"};
+// x, y, z and current: the roles reader_options::columns names.
+constexpr std::size_t grid_roles = 4;
 
 struct csv_columns {
     std::vector<role> roles;
     std::vector<std::string> names;
     double x_factor = 1.0, y_factor = 1.0, z_factor = 1.0, current_factor = 1.0;
-    int header_line = 0;
+    std::string header;  // "the header on line 3", for messages about cell counts
+    csv_dialect dialect;
 };
 
 // Number of '\n' bytes. With SSE2 (every x86-64): compare 16 bytes at a time, subtract the
@@ -92,10 +98,12 @@ location at(const std::string& file, std::int64_t line, std::ptrdiff_t column) {
                     static_cast<int>(column), ""};
 }
 
-// The header as the chunk parser uses it: a role per column, names for messages, unit scales.
-csv_columns columns_of(const csv_header& header) {
+// The header as the chunk parser uses it: a role per column, names for messages, unit scales
+// (z negated for flip_z).
+csv_columns columns_of(const csv_header& header, csv_dialect dialect, bool flip_z) {
     csv_columns cols;
-    cols.header_line = header.line;
+    cols.header = header.describe();
+    cols.dialect = dialect;
     for (const column_descriptor& d : header.columns) {
         const role r = d.rule < 0 ? role::ignored : static_cast<role>(d.rule);
         if (r != role::ignored) {
@@ -104,6 +112,7 @@ csv_columns columns_of(const csv_header& header) {
         cols.roles.push_back(r);
         cols.names.push_back(d.name);
     }
+    if (flip_z) cols.z_factor = -cols.z_factor;
     return cols;
 }
 
@@ -149,12 +158,18 @@ struct run_state {
     std::int64_t line = 0;
 };
 
+// Pixels whose |I| clearly rises or falls with z (io/orientation.hpp), counted as they go by.
+struct orientation_tally {
+    std::atomic<std::uint64_t> rising{0}, falling{0};
+};
+
 // Where complete pixels go: the visitor, called with the file's bias and the pixel's first line,
-// and the list of runs for the grid check.
+// the orientation tally, and the list of runs for the grid check.
 struct pixel_sink {
     const std::string& file;
     double bias_V;
     const grid_visitor& visit;
+    orientation_tally& orientation;
 
     void deliver(unsigned slot, double x_m, double y_m, std::int64_t line, std::span<const double> z_m,
                  std::span<const double> current_A, std::vector<pixel_run>& runs) const {
@@ -165,12 +180,13 @@ struct pixel_sink {
         v.current_A = current_A;
         v.bias_V = bias_V;
         v.where = at(file, line, 1);
+        const z_orientation o = check_orientation(z_m, current_A).orientation;
+        if (o != z_orientation::unclear) ++(o == z_orientation::current_rises ? orientation.rising : orientation.falling);
         visit(v, slot);
         runs.push_back(pixel_run{x_m, y_m, line, z_m.size(), 0});
     }
 };
 
-inline bool is_space(char c) { return c == ' ' || c == '\t'; }
 inline bool is_space_or_cr(char c) { return c == ' ' || c == '\t' || c == '\r'; }
 
 // Blank and '#' lines (rare): the position after the line, or nullptr when it is a data row.
@@ -184,21 +200,21 @@ inline const char* skip_blank_or_comment(const char* p, const char* end) {
 
 // An x, y or ignored cell from p: stores x and y as text and returns the position after the cell.
 // x and y mostly repeat the previous row's text: that is checked first.
-inline const char* scan_text_cell(const char* p, const char* end, role r, const run_state& run, grid_row& row) {
+inline const char* scan_text_cell(const char* p, const char* end, role r, const run_state& run, grid_row& row,
+                                  csv_dialect d) {
     const char* const cell_start = p;
     if (r != role::ignored) {
         const std::string_view prev = r == role::x ? run.prev_x : run.prev_y;
         const std::size_t len = prev.size();
         if (len > 0 && static_cast<std::size_t>(end - p) >= len && same_text(std::string_view(p, len), prev)) {
             const char* q = p + len;
-            while (q < end && is_space_or_cr(*q)) ++q;
-            if (q == end || *q == ',' || *q == '\n') {
+            if (q == end || d.ends_cell(*q) || d.is_pad(*q)) {
                 (r == role::x ? row.x_text : row.y_text) = prev;
                 return q;
             }
         }
     }
-    while (p < end && *p != ',' && *p != '\n') ++p;
+    while (p < end && !d.ends_cell(*p)) ++p;
     if (r != role::ignored) {
         (r == role::x ? row.x_text : row.y_text) = trim_cell(std::string_view(cell_start, static_cast<std::size_t>(p - cell_start)));
     }
@@ -238,39 +254,61 @@ private:
     // The cells of the data row at p; returns the position of its line feed (or end).
     const char* scan_row(const char* p, const char* end, const char* line_start, std::int64_t line, const run_state& run,
                          grid_row& row) const {
+        const csv_dialect d = cols_.dialect;
         const std::size_t n_cols = cols_.roles.size();
         for (std::size_t c = 0; c < n_cols; ++c) {
-            while (p < end && is_space(*p)) ++p;
+            while (p < end && d.is_pad(*p)) ++p;
             const char* const cell_start = p;
             const role r = cols_.roles[c];
             if (r == role::z || r == role::current) {
                 double v;
-                const char* q = scan_number(p, end, v);
+                const char* q = scan_number(p, end, v, d.decimal_comma ? ',' : '.');
+                // A number the fast scan cannot take whole (an exponent with a decimal comma, a
+                // second comma): the slow path reads the cell or finds it bad.
+                if (!q || (d.decimal_comma && q < end && *q == ',')) q = slow_number(p, end, v);
                 if (!q) cell_error(line_start, cell_start, end, line, c);
                 p = q;
                 (r == role::z ? row.z : row.current) = v;
             } else {
-                p = scan_text_cell(p, end, r, run, row);
+                p = scan_text_cell(p, end, r, run, row, d);
             }
-            while (p < end && is_space_or_cr(*p)) ++p;
             p = after_cell(p, end, c + 1 < n_cols, line_start, cell_start, line, c);
         }
         return p;
     }
 
-    // After cell c: past its comma when more cells follow, else at the line end; anything else is
-    // a wrong cell count or a bad cell.
+    // The number cell at p read with the dialect (a decimal comma); the position after it, or
+    // nullptr when it is no number.
+    const char* slow_number(const char* p, const char* end, double& v) const {
+        const char* e = p;
+        while (e < end && !cols_.dialect.ends_cell(*e)) ++e;
+        const std::string_view cell = trim_cell(std::string_view(p, static_cast<std::size_t>(e - p)));
+        return parse_cell(cell, cols_.dialect, v) == number_status::ok ? e : nullptr;
+    }
+
+    // After cell c: past its delimiter when more cells follow, else at the line end (past any
+    // trailing delimiters); anything else is a wrong cell count or a bad cell.
     const char* after_cell(const char* p, const char* end, bool more, const char* line_start, const char* cell_start,
                            std::int64_t line, std::size_t c) const {
+        const csv_dialect d = cols_.dialect;
+        const char* const cell_end = p;
+        while (p < end && d.is_pad(*p)) ++p;
+        const bool at_line_end = p == end || *p == '\n';
+        if (d.runs()) {
+            // Cells are separated by the whitespace just skipped.
+            if (more ? at_line_end : !at_line_end && p != cell_end) wrong_cells(line_start, end, line);
+            if (!at_line_end && p == cell_end) cell_error(line_start, cell_start, end, line, c);
+            return p;
+        }
         if (more) {
-            if (p < end && *p == ',') return p + 1;
-            if (p == end || *p == '\n') wrong_cells(line_start, end, line);
+            if (!at_line_end && *p == d.delimiter) return p + 1;
+            if (at_line_end) wrong_cells(line_start, end, line);
             cell_error(line_start, cell_start, end, line, c);
         }
-        if (p < end && *p != '\n') {
-            if (*p == ',') wrong_cells(line_start, end, line);
-            cell_error(line_start, cell_start, end, line, c);
-        }
+        if (at_line_end) return p;
+        if (*p != d.delimiter) cell_error(line_start, cell_start, end, line, c);
+        while (p < end && (*p == d.delimiter || d.is_pad(*p))) ++p;  // trailing delimiters
+        if (p < end && *p != '\n') wrong_cells(line_start, end, line);
         return p;
     }
 
@@ -316,7 +354,7 @@ private:
 
     double position(std::string_view text, const char* line_start, std::int64_t line, role r) const {
         double v = 0.0;
-        const number_status st = parse_double(text, v);
+        const number_status st = parse_cell(text, cols_.dialect, v);
         if (st != number_status::ok) {
             const std::size_t c = static_cast<std::size_t>(std::find(cols_.roles.begin(), cols_.roles.end(), r) - cols_.roles.begin());
             throw_bad_number(at(file_, line, text.data() - line_start + 1), cols_.names[c], text, st);
@@ -327,17 +365,18 @@ private:
     [[noreturn]] void cell_error(const char* line_start, const char* cell_start, const char* end, std::int64_t line,
                                  std::size_t c) const {
         const char* e = cell_start;
-        while (e < end && *e != ',' && *e != '\n') ++e;
+        while (e < end && !cols_.dialect.ends_cell(*e)) ++e;
         const std::string_view cell = trim_cell(std::string_view(cell_start, static_cast<std::size_t>(e - cell_start)));
         double v = 0.0;
-        throw_bad_number(at(file_, line, cell_start - line_start + 1), cols_.names[c], cell, parse_double(cell, v));
+        throw_bad_number(at(file_, line, cell_start - line_start + 1), cols_.names[c], cell, parse_cell(cell, cols_.dialect, v));
     }
 
     [[noreturn]] void wrong_cells(const char* line_start, const char* end, std::int64_t line) const {
         const void* nl = std::memchr(line_start, '\n', static_cast<std::size_t>(end - line_start));
         const char* e = nl ? static_cast<const char*>(nl) : end;
-        const int n = count_cells(std::string_view(line_start, static_cast<std::size_t>(e - line_start)));
-        throw_cell_count(at(file_, line, 1), n, cols_.header_line, cols_.roles.size());
+        const std::string_view text(line_start, static_cast<std::size_t>(e - line_start));
+        throw_cell_count(at(file_, line, 1), reported_cell_count(text, cols_.dialect, cols_.roles.size()), cols_.header,
+                         cols_.roles.size());
     }
 
     const csv_columns& cols_;
@@ -620,7 +659,23 @@ private:
 
 }  // namespace
 
+namespace {
+
+// Most pixels' |I| rising with z: the grid's z grows as the tip approaches.
+void refuse_rising_current(const orientation_tally& t, const grid_layout& layout, bool flipped) {
+    if (t.rising.load() * 2 <= layout.pixels) return;
+    throw_rising_current(location{layout.path, 0, 0, ""},
+                         fmt::format("in {} of {} pixels, by the median |I| of each pixel's quarters of largest and "
+                                     "smallest z",
+                                     t.rising.load(), layout.pixels),
+                         flipped);
+}
+
+}  // namespace
+
 grid_layout read_grid_csv(const std::string& path, const grid_read_options& options, const grid_visitor& visit) {
+    const reader_options& ro = options.reader;
+    ro.validate(grid_roles);
     grid_layout layout;
     layout.path = path;
     const unsigned workers = resolved_threads(options);
@@ -630,12 +685,16 @@ grid_layout read_grid_csv(const std::string& path, const grid_read_options& opti
     std::unique_ptr<char[]> first(new char[file.chunk_bytes]);
     const std::size_t got = read_fully(file.handle.fd(), first.get(), file.chunk_bytes, 0, path);
     const bool eof = got < file.chunk_bytes;
-    csv_preamble pre = read_preamble(std::string_view(first.get(), got), eof, path, grid_format);
+    const column_choice choice = choice_of(ro, {ro.xy_unit, ro.xy_unit, ro.z_unit, ro.current_unit});
+    csv_preamble pre = read_preamble(std::string_view(first.get(), got), eof, path, grid_format, choice);
     layout.metadata = std::move(pre.metadata);
-    const csv_columns cols = columns_of(pre.header);
+    layout.notes = std::move(pre.header.notes);
+    apply_overrides(ro, layout.metadata, layout.notes);
+    const csv_columns cols = columns_of(pre.header, pre.dialect, ro.flip_z);
     const double bias_V = layout.metadata.bias_V ? *layout.metadata.bias_V : std::numeric_limits<double>::quiet_NaN();
 
-    const pixel_sink sink{path, bias_V, visit};
+    orientation_tally orientation;
+    const pixel_sink sink{path, bias_V, visit, orientation};
     const chunk_parser parser(cols, sink);
     pixel_joiner joiner(sink, workers);
     grid_csv_stream stream(file, path, options, workers, parser, joiner);
@@ -647,6 +706,7 @@ grid_layout read_grid_csv(const std::string& path, const grid_read_options& opti
     }
     const std::vector<std::string> files{path};
     check_grid(joiner.runs(), files, true, layout);
+    refuse_rising_current(orientation, layout, ro.flip_z);
     return layout;
 }
 

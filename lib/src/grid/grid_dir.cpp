@@ -39,11 +39,21 @@ std::vector<std::string> list_curve_files(const std::string& path) {
     return files;
 }
 
+// The reader options of the grid for its curve files: z and current of the grid's four columns
+// (x and y come from each file's metadata, with their units).
+reader_options curve_options(const reader_options& grid) {
+    reader_options o = grid;
+    if (o.columns.size() == 4) o.columns = {grid.columns[2], grid.columns[3]};
+    o.xy_unit.clear();
+    return o;
+}
+
 // Reads the curve file `files[i]` and visits its first sweep as a pixel at the metadata's x, y.
-// first_metadata: receives the metadata of file 0.
+// first_metadata: receives the metadata of file 0; notes: the reader's notes of the file.
 pixel_run visit_curve_file(const std::vector<std::string>& files, std::size_t i, unsigned slot, const grid_visitor& visit,
-                           curve_metadata& first_metadata) {
-    const measured_curve c = read_curve_csv(files[i]);
+                           const reader_options& options, curve_metadata& first_metadata, std::vector<std::string>& notes) {
+    const measured_curve c = read_curve_csv(files[i], options);
+    notes = c.notes;
     if (!c.metadata.x_m || !c.metadata.y_m) {
         throw_input(location{files[i], 0, 0, c.metadata.x_m ? "y" : "x"},
                     "no lateral position in the metadata; every file of a grid directory needs "
@@ -66,9 +76,26 @@ pixel_run visit_curve_file(const std::vector<std::string>& files, std::size_t i,
 // is the one reported, whatever the thread count.
 class directory_reader {
 public:
-    directory_reader(const std::vector<std::string>& files, const grid_visitor& visit, curve_metadata& first_metadata)
-        : files_(files), visit_(visit), first_metadata_(first_metadata), runs_(files.size()), failures_(files.size()),
-          first_failure_(files.size()) {}
+    directory_reader(const std::vector<std::string>& files, const grid_visitor& visit, const reader_options& options,
+                     curve_metadata& first_metadata)
+        : files_(files), visit_(visit), options_(curve_options(options)), first_metadata_(first_metadata),
+          runs_(files.size()), notes_(files.size()), failures_(files.size()), first_failure_(files.size()) {}
+
+    // The notes of the first file that has any, naming it, and how many more files have notes.
+    std::vector<std::string> notes() const {
+        std::vector<std::string> out;
+        std::size_t more = 0;
+        for (std::size_t i = 0; i < files_.size(); ++i) {
+            if (notes_[i].empty()) continue;
+            if (out.empty()) {
+                for (const std::string& n : notes_[i]) out.push_back(fmt::format("{}: {}", files_[i], n));
+            } else {
+                ++more;
+            }
+        }
+        if (more > 0) out.push_back(fmt::format("the same for {} more file{}", more, more == 1 ? "" : "s"));
+        return out;
+    }
 
     // Runs `workers` threads to the end, reporting progress (bytes of the files done, of `total`)
     // from the calling thread; rethrows the first failure. Returns the runs in file order.
@@ -100,7 +127,7 @@ private:
             // Files after a failure need not be read: only an earlier failure could replace it.
             if (i >= files_.size() || i > first_failure_.load()) break;
             try {
-                runs_[i] = visit_curve_file(files_, i, slot, visit_, first_metadata_);
+                runs_[i] = visit_curve_file(files_, i, slot, visit_, options_, first_metadata_, notes_[i]);
             } catch (...) {
                 failures_[i] = std::current_exception();
                 std::size_t f = first_failure_.load();
@@ -118,9 +145,11 @@ private:
 
     const std::vector<std::string>& files_;
     const grid_visitor& visit_;
+    const reader_options options_;
     curve_metadata& first_metadata_;
     const std::vector<std::uint64_t>* sizes_ = nullptr;
     std::vector<pixel_run> runs_;
+    std::vector<std::vector<std::string>> notes_;
     std::vector<std::exception_ptr> failures_;
     std::atomic<std::size_t> next_{0}, first_failure_;
     std::atomic<std::uint64_t> done_bytes_{0};
@@ -132,6 +161,7 @@ private:
 }  // namespace
 
 grid_layout read_grid_directory(const std::string& path, const grid_read_options& options, const grid_visitor& visit) {
+    options.reader.validate(4);
     grid_layout layout;
     layout.path = path;
     layout.directory = true;
@@ -144,8 +174,9 @@ grid_layout read_grid_directory(const std::string& path, const grid_read_options
         total += ec ? 0 : sizes.back();
     }
     const unsigned workers = std::min<unsigned>(resolved_threads(options), static_cast<unsigned>(files.size()));
-    directory_reader reader(files, visit, layout.metadata);
+    directory_reader reader(files, visit, options.reader, layout.metadata);
     const std::vector<pixel_run> runs = reader.run(workers, sizes, total, options);
+    layout.notes = reader.notes();
     if (options.progress) options.progress(total, total);
     for (const pixel_run& r : runs) layout.samples += r.samples;
     layout.bytes = total;

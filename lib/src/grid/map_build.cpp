@@ -185,6 +185,10 @@ void place_records(barrier_map& out, const std::vector<std::unique_ptr<slot_stat
 }  // namespace
 
 barrier_map make_barrier_map(const std::string& path, const map_options& options) {
+    return make_barrier_map([&](const grid_visitor& visit) { return read_grid(path, options.read, visit); }, options);
+}
+
+barrier_map make_barrier_map(const grid_source& source, const map_options& options) {
     options.validate();
     const unsigned slots = resolved_threads(options.read) + 1;
     std::vector<std::unique_ptr<slot_state>> state;
@@ -197,7 +201,7 @@ barrier_map make_barrier_map(const std::string& path, const map_options& options
 
     const auto t0 = std::chrono::steady_clock::now();
     barrier_map out;
-    out.grid = read_grid(path, options.read, visit);
+    out.grid = source(visit);
     out.read_and_fit_seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     place_records(out, state);
     for (pixel_quality q : out.quality) ++out.quality_counts[static_cast<std::size_t>(q)];

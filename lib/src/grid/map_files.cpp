@@ -31,7 +31,8 @@ std::string quality_codes() {
 const std::vector<std::string>& map_file_names() {
     static const std::vector<std::string> names = {"apparent_barrier_eV.csv", "decay_constant_per_nm.csv",
                                                    "stderr_apparent_barrier_eV.csv", "quality.csv", "summary.json",
-                                                   "barrier_map.png", "barrier_histogram.png"};
+                                                   "barrier_map.png", "barrier_histogram.png",
+                                                   "stderr_map.png", "quality_map.png"};
     return names;
 }
 
@@ -99,7 +100,7 @@ const std::vector<column<barrier_map>>& grid_columns() {
     using b = barrier_map;
     static const std::vector<column<b>> columns = {
         {"path", "", [](const b& m) { return m.grid.path; }},
-        {"layout", "", [](const b& m) { return m.grid.directory ? "directory" : "csv"; }},
+        {"layout", "", [](const b& m) { return m.grid.directory ? "directory" : m.grid.arrays ? "arrays" : "csv"; }},
         {"nx", "", [](const b& m) { return m.nx; }},
         {"ny", "", [](const b& m) { return m.ny; }},
         {"pixels", "", [](const b& m) { return m.grid.pixels; }},
@@ -154,6 +155,9 @@ record map_summary(const barrier_map& m, const map_options& o, const map_run& ru
     for (const auto& [k, v] : m.grid.metadata.entries) meta.set(k, v);
     j.set("metadata", meta);
     j.set("fit", to_record(map_fit_columns(), o));
+    record reader;  // how the grid was read: the reader options that differ from the defaults
+    for (const auto& [k, v] : settings(o.read.reader)) reader.set(k, v.empty() ? std::string("true") : v);
+    j.set("reader", reader);
     j.set("apparent_barrier_eV", to_record(map_statistics_columns(to_eV), m.barrier));
     j.set("decay_constant_per_nm", to_record(map_statistics_columns(times(1e-9)), summarize(m.decay_constant_per_m)));
     j.set("stderr_apparent_barrier_eV", to_record(map_statistics_columns(to_eV), summarize(m.apparent_barrier_stderr_J)));
@@ -165,6 +169,7 @@ record map_summary(const barrier_map& m, const map_options& o, const map_run& ru
     j.set("quality_codes", codes);
     j.set("quality_counts", counts);
     j.set("warnings", m.grid.warnings);
+    j.set("notes", m.grid.notes);
     // Run-dependent entries last, so that outputs of two runs differ only here.
     j.set("threads", run.threads);
     j.set("timings", timings(m, run));

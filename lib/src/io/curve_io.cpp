@@ -13,6 +13,7 @@
 #include "io/detail/csv_scan.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/units.hpp"
+#include "tipgap/io/orientation.hpp"
 
 namespace tipgap {
 namespace {
@@ -24,11 +25,13 @@ constexpr std::size_t min_curve_points = 3;
 // The columns of a curve file, in the order of column_role.
 enum class column_role { z, current, direction, ignored };
 constexpr detail::column_rule curve_columns[] = {
-    {"z", dimension::length, "z [nm]", true},
-    {"current", dimension::current, "current [nA]", true},
-    {"direction", std::nullopt, "", false},
+    {"z", "", dimension::length, "z [nm]", true},
+    {"current", "I", dimension::current, "current [nA]", true},
+    {"direction", "", std::nullopt, "", false},
 };
-constexpr detail::csv_format curve_format{curve_columns, "'z [nm],current [nA]'"};
+constexpr detail::csv_format curve_format{curve_columns, "'z [nm],current [nA]'", "--columns 1,2 --z-unit nm --current-unit pA"};
+// z and current: the roles reader_options::columns names.
+constexpr std::size_t curve_roles = 2;
 
 column_role role_of(const detail::column_descriptor& d) {
     return d.rule < 0 ? column_role::ignored : static_cast<column_role>(d.rule);
@@ -104,11 +107,41 @@ std::vector<curve_sweep> split_at_turns(const std::vector<double>& z_m, const st
 
 namespace {
 
+// The number of cells a row may have under `columns` header columns: exactly that many, or more
+// when the extra ones are empty (trailing delimiters).
+bool cell_count_fits(std::string_view line, detail::csv_dialect d, std::size_t columns) {
+    const int n = detail::count_cells(line, d);
+    return n == static_cast<int>(columns) || (n > static_cast<int>(columns) && detail::count_filled_cells(line, d) <= static_cast<int>(columns));
+}
+
+// One data row: z and current in SI, and its direction label (unknown without the column).
+void read_row(std::string_view line, int row_line, const detail::csv_preamble& pre, const std::string& file, double& z,
+              double& current, sweep_direction& dir) {
+    const std::vector<detail::column_descriptor>& columns = pre.header.columns;
+    detail::cell_cursor cells(line, pre.dialect);
+    std::string_view cell;
+    int column = 0;
+    for (std::size_t c = 0; c < columns.size() && cells.next(cell, column); ++c) {
+        const column_role role = role_of(columns[c]);
+        if (role == column_role::z || role == column_role::current) {
+            double v = 0.0;
+            const detail::number_status st = detail::parse_cell(cell, pre.dialect, v);
+            if (st != detail::number_status::ok)
+                detail::throw_bad_number(location{file, row_line, column, ""}, columns[c].name, cell, st);
+            (role == column_role::z ? z : current) = v * columns[c].scale;
+        } else if (role == column_role::direction && !from_string(cell, dir)) {
+            throw_input(location{file, row_line, column, ""},
+                        fmt::format("{} in column 'direction' is not a sweep direction; expected approach or retract",
+                                    quote_input(cell)));
+        }
+    }
+}
+
 // The data rows after the header: z and current in SI, and each row's direction when the file
 // has a direction column (then `directions` gets one entry per row).
 void read_rows(std::string_view text, const detail::csv_preamble& pre, const std::string& file, measured_curve& curve,
                std::vector<sweep_direction>& directions) {
-    const std::vector<detail::column_descriptor>& columns = pre.header.columns;
+    const std::size_t n_columns = pre.header.columns.size();
     // One reservation up front, then no allocation per row.
     const std::size_t line_estimate = static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n')) + 1;
     curve.z_m.reserve(line_estimate);
@@ -120,32 +153,28 @@ void read_rows(std::string_view text, const detail::csv_preamble& pre, const std
         std::string_view t = detail::trim_cell(line);
         if (t.empty() || t.front() == '#') continue;
         const int row_line = lines.line_number();
-        const int n_cells = detail::count_cells(line);
-        if (n_cells != static_cast<int>(columns.size()))
-            detail::throw_cell_count(location{file, row_line, 1, ""}, n_cells, pre.header.line, columns.size());
-        detail::cell_cursor cells(line);
-        std::string_view cell;
-        int column = 0;
+        if (!cell_count_fits(line, pre.dialect, n_columns)) {
+            detail::throw_cell_count(location{file, row_line, 1, ""}, detail::reported_cell_count(line, pre.dialect, n_columns),
+                                     pre.header.describe(), n_columns);
+        }
         double z = 0.0, current = 0.0;
         sweep_direction dir = sweep_direction::unknown;
-        for (std::size_t c = 0; cells.next(cell, column); ++c) {
-            const column_role role = role_of(columns[c]);
-            if (role == column_role::z || role == column_role::current) {
-                double v = 0.0;
-                const detail::number_status st = detail::parse_double(cell, v);
-                if (st != detail::number_status::ok)
-                    detail::throw_bad_number(location{file, row_line, column, ""}, columns[c].name, cell, st);
-                (role == column_role::z ? z : current) = v * columns[c].scale;
-            } else if (role == column_role::direction && !from_string(cell, dir)) {
-                throw_input(location{file, row_line, column, ""},
-                            fmt::format("{} in column 'direction' is not a sweep direction; expected {}",
-                                        quote_input(cell), accepted_names<sweep_direction>()));
-            }
-        }
+        read_row(line, row_line, pre, file, z, current, dir);
         curve.z_m.push_back(z);
         curve.current_A.push_back(current);
         if (curve.has_direction_column) directions.push_back(dir);
     }
+}
+
+// A curve whose |I| clearly rises with z is refused: its z grows as the tip approaches.
+void refuse_rising_current(const measured_curve& curve, bool flipped) {
+    const orientation_check o = check_orientation(curve.z_m, curve.current_A);
+    if (o.orientation != z_orientation::current_rises) return;
+    detail::throw_rising_current(location{curve.file, 0, 0, ""},
+                                 fmt::format("median {:.3g} A over the quarter of the points with the largest z, {:.3g} A "
+                                             "over the quarter with the smallest",
+                                             o.far_median_A, o.near_median_A),
+                                 flipped);
 }
 
 // Sweeps are the runs of equal direction labels.
@@ -170,12 +199,17 @@ std::vector<curve_sweep> sweeps_by_label(const measured_curve& curve, const std:
 
 }  // namespace
 
-measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
+measured_curve parse_curve_csv(std::string_view text, const std::string& file, const reader_options& options) {
+    options.validate(curve_roles);
     measured_curve curve;
     curve.file = file;
-    detail::csv_preamble pre = detail::read_preamble(text, true, file, curve_format);
+    detail::csv_preamble pre = detail::read_preamble(text, true, file, curve_format,
+                                                     detail::choice_of(options, {options.z_unit, options.current_unit, ""}));
     curve.metadata = std::move(pre.metadata);
+    curve.notes = std::move(pre.header.notes);
+    detail::apply_overrides(options, curve.metadata, curve.notes);
     curve.has_direction_column = pre.header.find(static_cast<int>(column_role::direction)) >= 0;
+    if (options.flip_z) pre.header.columns[pre.header.find(static_cast<int>(column_role::z))].scale *= -1.0;
     std::vector<sweep_direction> directions;
     read_rows(text, pre, file, curve, directions);
     if (curve.z_m.size() < min_curve_points) {
@@ -183,11 +217,12 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file) {
                     fmt::format("only {} data row{}; a curve needs at least {} points", curve.z_m.size(),
                                 curve.z_m.size() == 1 ? "" : "s", min_curve_points));
     }
+    refuse_rising_current(curve, options.flip_z);
     curve.sweeps = curve.has_direction_column ? sweeps_by_label(curve, directions) : split_at_turns(curve.z_m, curve.current_A);
     return curve;
 }
 
-measured_curve read_curve_csv(const std::string& path) {
+measured_curve read_curve_csv(const std::string& path, const reader_options& options) {
     std::error_code ec;
     if (std::filesystem::is_directory(path, ec)) {
         throw_input(location{path, 0, 0, ""}, "this is a directory; expected a curve file (CSV)");
@@ -207,7 +242,7 @@ measured_curve read_curve_csv(const std::string& path) {
     } else {
         text.assign(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
     }
-    return parse_curve_csv(text, path);
+    return parse_curve_csv(text, path, options);
 }
 
 }  // namespace tipgap

@@ -83,11 +83,17 @@ bool barrier::forbidden_interval(double E, double& x1, double& x2) const {
     // Near an electrode U ~ U_lin - c/x, which gives a close first guess for the turning point.
     const double c_near = image_ == image_kind::exact ? si::coulomb_e2 / (4.0 * K_) : image_scale_;
     double lo = s_ * 1e-12, hi = s_ * (1.0 - 1e-12);
-    double d1 = phi_t_ - E;
-    double g1 = d1 > 0 ? c_near / d1 : 0.5 * top_x_;
+    // Keeping the linear term too, U - E ~ d + k y - c/y at a distance y from an electrode, whose
+    // root y = 2c / (d + sqrt(d^2 + 4kc)) is within O((y/s)^2) of the turning point: Newton then
+    // needs about half the steps it needs from c/d.
+    auto near_root = [c_near](double d, double k) {
+        const double disc = d * d + 4.0 * k * c_near;
+        return d > 0 && disc >= 0 ? 2.0 * c_near / (d + std::sqrt(disc)) : -1.0;
+    };
     double us = phi_t_ + slope_lin_ * s_;
-    double d2 = us - E;
-    double g2 = d2 > 0 ? s_ - c_near / d2 : 0.5 * (top_x_ + s_);
+    double y1 = near_root(phi_t_ - E, slope_lin_), y2 = near_root(us - E, -slope_lin_);
+    double g1 = y1 > 0 ? y1 : 0.5 * top_x_;
+    double g2 = y2 > 0 ? s_ - y2 : 0.5 * (top_x_ + s_);
     x1 = detail::turning_point(fdf, std::min(g1, 0.999 * top_x_), lo, top_x_);
     x2 = detail::turning_point(fdf, std::max(g2, top_x_ + 0.001 * (s_ - top_x_)), top_x_, hi);
     return true;

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 #include <numbers>
 
+#include "model/detail/paraboloid_current.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/model/current.hpp"
 #include "tipgap/core/error.hpp"
@@ -92,8 +93,12 @@ double paraboloid_integral(const std::function<double(double)>& j, double R, dou
 
 namespace {
 
-double paraboloid_current(const model_options& model, double R, double s, double V) {
-    return paraboloid_integral([&](double gap) { return current_density(model, gap, V); }, R, s, model.rel_tol);
+// J and dJ/ds at the apex, the way the paraboloid rule wants them: analytic for wkb, and for other
+// methods J alone (they use the adaptive rule, which needs no derivative).
+gap_sample apex_sample(const model_options& model, double s, double V) {
+    if (model.method != method_kind::wkb) return {current_density(model, s, V), 0.0};
+    const current_density_slopes d = current_density_derivatives(model, s, V, false);
+    return {d.current_density_A_per_m2, d.d_ds_A_per_m3};
 }
 
 }  // namespace
@@ -101,10 +106,36 @@ double paraboloid_current(const model_options& model, double R, double s, double
 double total_current(const model_options& model, const geometry_options& g, double s, double V) {
     switch (g.kind) {
         case geometry_kind::planar: return g.area_m2 * current_density(model, s, V);
-        case geometry_kind::paraboloid: return paraboloid_current(model, g.apex_radius_m, s, V);
+        case geometry_kind::paraboloid:
+            return detail::paraboloid_density_integral(model, g.apex_radius_m, s, V, false, apex_sample(model, s, V));
         case geometry_kind::contact_anchored: return contact_anchored_area(model, g) * current_density(model, s, V);
     }
     return 0.0;
+}
+
+geometry_options with_fixed_area(const model_options& model, const geometry_options& g) {
+    if (g.kind != geometry_kind::contact_anchored) return g;
+    geometry_options out = g;
+    out.kind = geometry_kind::planar;
+    out.area_m2 = contact_anchored_area(model, g);
+    return out;
+}
+
+total_current_sample total_current_with_slope(const model_options& model, const geometry_options& g, double s,
+                                              double V) {
+    total_current_sample out;
+    if (g.kind == geometry_kind::paraboloid) {
+        const gap_sample apex = apex_sample(model, s, V);
+        const double R = g.apex_radius_m;
+        out.current_A = detail::paraboloid_density_integral(model, R, s, V, false, apex);
+        out.d_ln_current_ds_per_m = -2.0 * std::numbers::pi * R * apex.value / out.current_A;
+        return out;
+    }
+    const double area = g.kind == geometry_kind::planar ? g.area_m2 : contact_anchored_area(model, g);
+    const current_density_slopes d = current_density_derivatives(model, s, V, false);
+    out.current_A = area * d.current_density_A_per_m2;
+    out.d_ln_current_ds_per_m = d.d_ds_A_per_m3 / d.current_density_A_per_m2;
+    return out;
 }
 
 }  // namespace tipgap

@@ -24,7 +24,11 @@ double supply_function(double E, double eV, double kT) {
     } else {
         lin = std::max(a, 0.0) - std::max(b, 0.0);
     }
-    return kT * (lin + std::log1p(std::exp(-std::abs(a))) - std::log1p(std::exp(-std::abs(b))));
+    // ln(1 + e^-|y|) is exactly 0 in double once e^-|y| underflows to 0 (|y| > 745.2); returning it
+    // directly skips libm's slow underflow path, which deep below a Fermi edge at low temperature
+    // (|y| ~ 1e4) is taken at most energy nodes.
+    auto tail = [](double y) { return std::abs(y) > 746.0 ? 0.0 : std::log1p(std::exp(-std::abs(y))); };
+    return kT * (lin + tail(a) - tail(b));
 }
 
 }  // namespace tipgap

@@ -11,13 +11,10 @@ double wkb_exponent(const barrier& b, double E, double abs_tol) {
     double x1 = 0, x2 = 0;
     if (!b.forbidden_interval(E, x1, x2)) return 0.0;
     if (b.image() == image_kind::none) {
-        // Linear U: ∫ sqrt(u) dx over a length L with u from u1 to u2 is
-        // (2/3) L (u1 + sqrt(u1 u2) + u2) / (sqrt(u1) + sqrt(u2)), stable also for u1 = u2.
+        // Linear U: the closed form of ∫ sqrt(U - E) dx.
         double u1 = std::max(0.0, b.potential_J(x1) - E), u2 = std::max(0.0, b.potential_J(x2) - E);
-        double r1 = std::sqrt(u1), r2 = std::sqrt(u2);
-        if (r1 + r2 == 0.0) return 0.0;
-        double integral = (2.0 / 3.0) * (x2 - x1) * (u1 + r1 * r2 + u2) / (r1 + r2);
-        return detail::wkb_prefactor() * integral;
+        if (u1 + u2 == 0.0) return 0.0;
+        return detail::wkb_prefactor() * detail::trapezoid_sqrt_integral(u1, u2, x2 - x1);
     }
     auto f = [&b, E](double x) { return b.potential_J(x) - E; };
     double xm = std::clamp(b.top_x_m(), x1, x2);

@@ -1,11 +1,12 @@
-// The gap solver: TOMS 748 on ln|I(s)| - ln|I_set| over the physical gap range.
+// The gap solver: safeguarded Newton iteration on ln|I(s)| - ln|I_set| over the physical gap range.
 #include "tipgap/plan/plan.hpp"
 
 #include <algorithm>
-#include <boost/math/tools/toms748_solve.hpp>
 #include <cmath>
 #include <fmt/format.h>
+#include <limits>
 
+#include "plan/detail/gap_solver.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
 
@@ -35,8 +36,9 @@ std::string unreachable_warning(solve_status status, double gap_min_m, double ga
                        gap_min_m * 1e9, gap_max_m * 1e9, fix);
 }
 
-gap_solution solve_gap(const config& c, double current_A, double bias_V, const plan_options& o) {
-    o.validate();
+namespace {
+
+void check_setpoint(const config& c, double current_A, double bias_V) {
     if (!(std::isfinite(current_A) && current_A != 0.0)) {
         location w;
         w.key = "current";
@@ -49,51 +51,79 @@ gap_solution solve_gap(const config& c, double current_A, double bias_V, const p
                                    "(got {:g} V)",
                                    c.model.bias_limit_V, bias_V));
     }
+}
+
+// The iteration state: the residual f(s) = ln|I(s)| - ln|I_set| falls with s, so every evaluated
+// gap with f > 0 is a lower bound of the root and every one with f < 0 an upper bound.
+struct newton_state {
+    double lo, hi;                      // current bracket (the range ends until evaluated)
+    bool lo_seen = false, hi_seen = false;  // whether f was evaluated at lo / hi
+};
+
+// The next gap after s: the Newton step while it stays inside the bracket; where it leaves, an end
+// of the range not yet evaluated (which decides reachability), else bisection. This is the
+// safeguarded Newton iteration of Press et al., Numerical Recipes, 3rd ed. (2007), §9.4 (rtsafe).
+double next_gap(const newton_state& b, double s, double f, double slope) {
+    const double t = s - f / slope;
+    if (std::isfinite(t) && t > b.lo && t < b.hi) return t;
+    const bool rightwards = std::isfinite(t) ? t >= b.hi : f > 0.0;
+    if (rightwards && !b.hi_seen) return b.hi;
+    if (!rightwards && !b.lo_seen) return b.lo;
+    return 0.5 * (b.lo + b.hi);
+}
+
+}  // namespace
+
+gap_solution solve_gap(const config& c, double current_A, double bias_V, const plan_options& o) {
+    return detail::solve_gap_from(c, current_A, bias_V, o, std::numeric_limits<double>::quiet_NaN());
+}
+
+namespace detail {
+
+gap_solution solve_gap_from(const config& c, double current_A, double bias_V, const plan_options& o, double guess) {
+    o.validate();
+    check_setpoint(c, current_A, bias_V);
     gap_solution out;
     const double target = std::log(std::abs(current_A));
     const double log_tol = std::max(o.log_current_tol, 0.1 * c.model.rel_tol);
-    double best_s = 0, best_f = std::numeric_limits<double>::infinity(), best_I = 0;
-    auto f = [&](double s) {
+    const geometry_options g = with_fixed_area(c.model, c.geometry);
+    double best_f = std::numeric_limits<double>::infinity();
+    newton_state b{o.gap_min_m, o.gap_max_m};
+    double s = guess > o.gap_min_m && guess < o.gap_max_m ? guess : std::sqrt(o.gap_min_m * o.gap_max_m);
+    bool closed = false;
+    while (out.evaluations < o.max_evaluations) {
         ++out.evaluations;
-        const double I = total_current(c.model, c.geometry, s, bias_V);
+        const total_current_sample x = total_current_with_slope(c.model, g, s, bias_V);
         // |I| = 0 (underflow far out) reads as an infinitely small current.
-        const double r = I != 0.0 ? std::log(std::abs(I)) - target : -std::numeric_limits<double>::max();
-        if (std::abs(r) < std::abs(best_f)) {
-            best_f = r;
-            best_s = s;
-            best_I = I;
+        const double f = x.current_A != 0.0 ? std::log(std::abs(x.current_A)) - target
+                                             : -std::numeric_limits<double>::max();
+        if (std::abs(f) < std::abs(best_f)) {
+            best_f = f;
+            out.gap_m = s;
+            out.current_A = x.current_A;
+            out.d_ln_current_ds_per_m = x.d_ln_current_ds_per_m;
         }
-        return r;
-    };
-    const double f_lo = f(o.gap_min_m);
-    if (f_lo < 0) {
-        out.status = solve_status::current_too_high;
-        out.message = unreachable_warning(out.status, o.gap_min_m, o.gap_max_m);
-        return out;
+        if (std::abs(f) <= log_tol) break;
+        (f > 0.0 ? b.lo : b.hi) = s;
+        (f > 0.0 ? b.lo_seen : b.hi_seen) = true;
+        if (f < 0.0 && s == o.gap_min_m) out.status = solve_status::current_too_high;
+        if (f > 0.0 && s == o.gap_max_m) out.status = solve_status::current_too_low;
+        if (out.status == solve_status::current_too_high || out.status == solve_status::current_too_low) {
+            out.gap_m = out.current_A = out.d_ln_current_ds_per_m = std::numeric_limits<double>::quiet_NaN();
+            out.message = unreachable_warning(out.status, o.gap_min_m, o.gap_max_m);
+            out.iterations = std::max(0, out.evaluations - 2);
+            return out;
+        }
+        const double t = next_gap(b, s, f, x.d_ln_current_ds_per_m);
+        // The bracket, or the step, has shrunk below the gap tolerance: the root is located.
+        if ((b.lo_seen && b.hi_seen && b.hi - b.lo <= o.gap_tol_m) || std::abs(t - s) <= o.gap_tol_m) {
+            closed = true;
+            break;
+        }
+        s = t;
     }
-    const double f_hi = f(o.gap_max_m);
-    if (f_hi > 0) {
-        out.status = solve_status::current_too_low;
-        out.message = unreachable_warning(out.status, o.gap_min_m, o.gap_max_m);
-        return out;
-    }
-    bool bracket_closed = f_lo == 0.0 || f_hi == 0.0;
-    if (!bracket_closed) {
-        // Boost checks the tolerance after every step; stopping on the residual as well as on the
-        // bracket width saves the last steps once the current is right to log_current_tol.
-        auto tol = [&](double a, double b) {
-            return std::abs(best_f) <= log_tol || std::abs(b - a) <= o.gap_tol_m;
-        };
-        boost::uintmax_t budget = static_cast<boost::uintmax_t>(o.max_evaluations - 2);
-        // On an exhausted budget Boost returns the current bracket (no exception); the best point is kept.
-        auto ab = boost::math::tools::toms748_solve(f, o.gap_min_m, o.gap_max_m, f_lo, f_hi, tol, budget);
-        bracket_closed = std::abs(ab.second - ab.first) <= o.gap_tol_m;
-    }
-    out.iterations = out.evaluations - 2;
-    out.gap_m = best_s;
-    out.current_A = best_I;
-    const bool closed = std::abs(best_f) <= log_tol;
-    out.status = closed || bracket_closed ? solve_status::converged : solve_status::not_converged;
+    out.iterations = std::max(0, out.evaluations - 2);
+    out.status = std::abs(best_f) <= log_tol || closed ? solve_status::converged : solve_status::not_converged;
     if (out.status == solve_status::not_converged) {
         out.message = fmt::format("the gap solver used its {} evaluations; the current at the best gap is off by {:.2g} "
                                   "relative",
@@ -101,5 +131,7 @@ gap_solution solve_gap(const config& c, double current_A, double bias_V, const p
     }
     return out;
 }
+
+}  // namespace detail
 
 }  // namespace tipgap

@@ -1,8 +1,10 @@
 // One planned setpoint with its instrument-facing quantities, and many setpoints in parallel.
 #include <cmath>
 #include <fmt/format.h>
+#include <limits>
 
 #include "core/detail/parallel.hpp"
+#include "plan/detail/gap_solver.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -13,10 +15,16 @@
 namespace tipgap {
 
 plan_point plan_setpoint(const config& c, double current_A, double bias_V, const plan_options& o) {
+    return detail::plan_setpoint_from(c, current_A, bias_V, o, std::numeric_limits<double>::quiet_NaN());
+}
+
+namespace detail {
+
+plan_point plan_setpoint_from(const config& c, double current_A, double bias_V, const plan_options& o, double guess) {
     plan_point p;
     p.setpoint_A = current_A;
     p.bias_V = bias_V;
-    p.solution = solve_gap(c, current_A, bias_V, o);
+    p.solution = solve_gap_from(c, current_A, bias_V, o, guess);
     p.evaluations = p.solution.evaluations;
     if (!p.reachable()) {
         p.warnings.push_back(p.solution.message);
@@ -25,15 +33,14 @@ plan_point plan_setpoint(const config& c, double current_A, double bias_V, const
     const double s = p.solution.gap_m, I = p.solution.current_A;
     p.gap_resistance_ohm = bias_V / I;
     p.conductance_G0 = I / bias_V / si::conductance_quantum;
-    // d ln|I|/ds of the total current by central differences: ln|I| is nearly linear in s, so the
-    // O(h^2) error at h = 0.01 nm is ~1e-5 relative, while the model noise (rel_tol) divided by 2h
-    // stays far below the slope (~2e10 /m).
-    const double h = std::min(o.slope_step_m, 0.25 * s);
-    const double ip = total_current(c.model, c.geometry, s + h, bias_V);
-    const double im = total_current(c.model, c.geometry, s - h, bias_V);
-    p.evaluations += 2;
-    if (ip != 0.0 && im != 0.0) {
-        const double slope = (std::log(std::abs(ip)) - std::log(std::abs(im))) / (2.0 * h);  // 1/m, < 0
+    // d ln|I|/ds of the total current (what a z-spectroscopy measures), from the solver's own
+    // evaluation at the planned gap: analytic for the wkb model, exact for the paraboloid.
+    double slope = p.solution.d_ln_current_ds_per_m;
+    if (!std::isfinite(slope)) {
+        slope = total_current_with_slope(c.model, c.geometry, s, bias_V).d_ln_current_ds_per_m;
+        p.evaluations += 1;
+    }
+    if (std::isfinite(slope)) {
         p.decay_constant_per_m = -0.5 * slope;
         p.nm_per_decade = slope < 0 ? std::log(10.0) / -slope * 1e9 : std::numeric_limits<double>::infinity();
         // Apparent barrier height, phi_ap = (hbar^2 / 8m) (d ln I / ds)^2 (Binnig & Rohrer 1982,
@@ -45,6 +52,8 @@ plan_point plan_setpoint(const config& c, double current_A, double bias_V, const
     for (auto& w : operating_warnings(s, bias_V, p.conductance_G0, p.kind)) p.warnings.push_back(std::move(w));
     return p;
 }
+
+}  // namespace detail
 
 std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::pair<double, double>>& setpoints,
                                        const plan_options& o, int threads) {

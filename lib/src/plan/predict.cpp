@@ -44,18 +44,25 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
         auto [s, V] = points[i];
         prediction& p = out[i];
         p.q = evaluate_point(c.model, s, V);
-        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : total_current(c.model, c.geometry, s, V);
+        // The paraboloid rule reuses J and dJ/ds at the apex from evaluate_point.
+        const double R = c.geometry.apex_radius_m;
+        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : paraboloid_current(c.model, R, p.q);
         if (V != 0.0) {
             p.conductance_S = p.current_A / V;
         } else if (fixed_area) {
             p.conductance_S = area * p.q.differential_conductance_density_S_per_m2;
         } else {
-            const double dV = 1e-3;
-            p.conductance_S = total_current(c.model, c.geometry, s, dV) / dV;
+            p.conductance_S = paraboloid_zero_bias_conductance(c.model, R, p.q);
         }
         p.conductance_G0 = p.conductance_S / si::conductance_quantum;
         const double kappa_per_nm = p.q.decay_constant_per_m * 1e-9;
         p.nm_per_decade = kappa_per_nm > 0 ? std::log(10.0) / (2.0 * kappa_per_nm) : 0.0;
+        if (!fixed_area && V != 0.0 && p.current_A != 0.0) {
+            // The paraboloid sums J over local gaps, so d ln|I|/dV differs from the planar value.
+            const double dV = bias_step(c.model, V);
+            p.q.dlnI_dV_per_V = (total_current(c.model, c.geometry, s, V + dV) -
+                                 total_current(c.model, c.geometry, s, V - dV)) / (2.0 * dV * p.current_A);
+        }
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
     });
     return out;

@@ -19,6 +19,7 @@ const std::vector<column<prediction>>& prediction_columns() {
         {.key = "differential_conductance_density_S_per_m2",
          .get = [](const p& x) { return x.q.differential_conductance_density_S_per_m2; },
          .shown = in_json},
+        {.key = "dlnI_dV_per_V", .get = [](const p& x) { return x.q.dlnI_dV_per_V; }, .shown = in_json},
         {"decay_constant_per_nm", "κ [1/nm]", [](const p& x) { return x.q.decay_constant_per_m; }, to_per_nm},
         {"nm_per_decade", "nm/decade", [](const p& x) { return x.nm_per_decade; }},
         {"apparent_barrier_eV", "φ_ap [eV]", [](const p& x) { return x.q.apparent_barrier_J; }, to_eV},

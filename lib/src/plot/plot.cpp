@@ -121,6 +121,8 @@ void set_colours(plstream& pls) {
     put(ci_bar_fill, bar_fill);
     put(ci_bar_edge, bar_edge);
     put(ci_legend_frame, legend_frame);
+    put(ci_band_grey, band_grey);
+    put(ci_band_edge, band_edge);
     for (int i = 0; i < static_cast<int>(look_count); ++i) {
         put(ci_look + i, look_at(i).colour);
         put(ci_tint + i, tint(look_at(i).colour));

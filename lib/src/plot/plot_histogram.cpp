@@ -136,7 +136,7 @@ void draw_histogram(plstream& pls, const histogram_panel& p, const cell& c) {
                           ci_ink, false, {}, 0.0, ""});
 
     draw_frame(pls, p.title, p.x_axis, count_axis);
-    draw_legend(pls, legend, p.legend, c);
+    draw_legend(pls, legend, p.legend == legend_position::best ? legend_position::top_right : p.legend, c);
 }
 
 }  // namespace detail

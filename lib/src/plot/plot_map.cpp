@@ -1,6 +1,7 @@
 // The colour-map panel: cells coloured by value, NaN cells hatched grey, a colour bar.
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <fmt/format.h>
 #include <limits>
 
@@ -121,13 +122,14 @@ void draw_cells(plstream& pls, const colour_map_panel& p, std::vector<PLFLT>& xe
                 static_cast<PLFLT>(ny), -big, big, z.lo, z.hi, plcallback::tr1, &grid);
 }
 
-// Colour bar to the right of the plot area, full height.
+// Colour bar to the right of the plot area, full height, from z.lo to z.hi.
 void draw_colour_bar(plstream& pls, const std::string& bar_label, const range& z) {
     PLFLT w = 0, h = 0;
     PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT};
     const std::string label = plplot_text(bar_label);
     const char* labels[1] = {label.c_str()};
-    const char* axis_opts[1] = {"bcmstv"};
+    // 'o': plain-decimal labels from tick_label, never PLplot's "(x10ⁿ)" above the bar.
+    const char* axis_opts[1] = {"bcmstvo"};
     PLFLT ticks[1] = {0.0};
     PLINT sub_ticks[1] = {0};
     PLFLT values[2] = {z.lo, z.hi};
@@ -135,10 +137,17 @@ void draw_colour_bar(plstream& pls, const std::string& bar_label, const range& z
     PLINT n_values[1] = {2};
     pls.col0(ci_ink);
     pls.width(frame_width);
+    double span = z.hi - z.lo;
+    pls.slabelfunc(
+        [](PLINT, PLFLT value, char* label, PLINT length, PLPointer data) {
+            std::snprintf(label, static_cast<std::size_t>(length), "%s", tick_label(value, *static_cast<double*>(data)).c_str());
+        },
+        &span);
     pls.colorbar(&w, &h, PL_COLORBAR_IMAGE | PL_COLORBAR_LABEL_RIGHT,
                  PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.025, 0.0, 0.035, 1.0,
                  ci_background, ci_ink, 1, 0.0, 1.0, ci_ink, 1.0, 1, label_opts, labels, 1, axis_opts, ticks,
                  sub_ticks, n_values, value_rows);
+    pls.slabelfunc(nullptr, nullptr);
 }
 
 // A key for the hatch: a swatch at the top right, above the plot area, with its text to the left

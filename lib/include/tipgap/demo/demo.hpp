@@ -9,26 +9,34 @@
 
 #include "tipgap/config/config.hpp"
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/io/reader_options.hpp"
 #include "tipgap/fit/fit.hpp"
+#include "tipgap/fit/resonances.hpp"
 #include "tipgap/fit/model_fit.hpp"
 #include "tipgap/plan/plan.hpp"
 #include "tipgap/plan/predict.hpp"
 #include "tipgap/synth/synth.hpp"
+#include "tipgap/synth/zv_synth.hpp"
 
 namespace tipgap {
 
 struct demo_options {
-    std::string scans_dir;          // directory of *.csv curves (each with <stem>.truth.yaml, optional)
+    // Directory of curves (*.csv, *.tsv, *.txt), each with an optional <stem>.truth.yaml and, for a
+    // file in another layout, <stem>.read.yaml: the reader options it is read with
+    // (load_reader_options).
+    std::string scans_dir;
     double bias_V = 0.1;            // bias of the prediction sweep (V)
     double gap_min_m = 0.3e-9;      // prediction sweep (m), 0 < min < max
     double gap_max_m = 1.5e-9;
     int gap_points = 25;            // [2, 10000]
     bool model_comparison = true;   // fit the model (mean work function, gap offset) to each sweep
+    bool resonances = true;         // analyse the z(V) traces in <scans_dir>/resonances/, if any
     int threads = 0;                // 0 = all cores
 };
 
 struct demo_curve {
     std::shared_ptr<const measured_curve> curve;
+    reader_options read;                     // how the file was read (from <stem>.read.yaml)
     std::size_t sweep_index = 0;
     fit_result fit;
     std::optional<model_fit_result> model;
@@ -43,6 +51,15 @@ struct demo_curve {
     const curve_sweep& sweep() const { return curve->sweeps[sweep_index]; }
 };
 
+// One synthetic z(V) trace of <scans_dir>/resonances/ and its resonance analysis.
+struct demo_resonance {
+    std::shared_ptr<const bias_trace> trace;
+    resonance_result result;
+    std::optional<zv_truth_record> truth;  // when <stem>.truth.yaml exists
+    bool work_function_within = false;     // truth inside the fit's interval
+    double largest_peak_error_V = 0;       // over the peaks found and in the truth, by order
+};
+
 struct demo_report {
     config cfg;                                  // the built-in default
     std::vector<prediction> sweep;               // gap sweep at options.bias_V
@@ -50,10 +67,11 @@ struct demo_report {
     // Setpoint ladder at options.bias_V (10 pA .. 10 nA, one per decade): how far the tip sits.
     std::vector<plan_point> plan;
     std::vector<std::string> files_without_truth;
+    std::vector<demo_resonance> resonances;      // in file-name order
 };
 
 // Throws tipgap::error (input) when the directory is missing or holds no curve files; a bad curve
-// file throws with its file:line:column.
+// file or reader options file throws with its file:line:column.
 demo_report run_demo(const demo_options& options);
 
 }  // namespace tipgap

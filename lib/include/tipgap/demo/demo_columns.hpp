@@ -33,8 +33,16 @@ demo_tally tally(const demo_report& r);
 // fit-<stem>.png, or fit-<stem>-<direction>.png for a file with several sweeps.
 std::string demo_plot_name(const demo_curve& d);
 
+// One analysed z(V) trace of demo_scans/resonances/: file, peaks (order, bias_V, bias_stderr_V),
+// truth peaks, work function (fit with stderr and interval, formula), truth and whether the
+// interval holds it, largest peak error (JSON), status. The table shows "-" where there is no truth.
+const std::vector<column<demo_resonance>>& demo_resonance_columns();
+
+// resonance-<stem>.png
+std::string demo_resonance_plot_name(const demo_resonance& d);
+
 // demo.json: command, synthetic_data, config, prediction, plan, curves (each with the path of its
-// figure in out_dir), summary.
+// figure in out_dir), summary, resonances.
 record demo_document(const demo_report& r, const std::string& out_dir);
 
 }  // namespace tipgap

@@ -20,7 +20,8 @@ struct fitted_sweep {
 };
 
 // Fits every sweep of `curve` (fit_curve) and, with a model config, fits the tunnelling model to
-// each (fit_model_to_sweep, at options.confidence_level). The model takes its points and weights
+// each (fit_model_to_sweep, at options.confidence_level), at the curve's temperature when its
+// metadata state one (else the config's). The model takes its points and weights
 // from the linear fit of the sweep, refitted when options.model is offset. `curve` must outlive
 // the result. Throws as fit_curve and fit_model_to_sweep.
 std::vector<fitted_sweep> fit_and_compare(const measured_curve& curve, const fit_options& options,

@@ -12,6 +12,8 @@
 //    samples (the first pixel's count), which is what exposes a file cut at a line end.
 //  * a directory of single-curve files (*.csv, read with read_curve_csv), one pixel each, whose
 //    metadata carry `x` and `y`; a pixel's samples are the file's first sweep.
+// Other delimiters, column names, units, header-less files and z orientation as for curves
+// (grid_read_options::reader); a grid whose pixels' |I| mostly rise with z is refused.
 // Either way the pixels must fill a rectangular grid: the distinct x values times the distinct y
 // values, each (x, y) exactly once. Violations are input errors naming file, line and column:
 // a pixel that appears again after other pixels ("unsorted" rows), a missing pixel, a pixel with
@@ -29,6 +31,7 @@
 #include <vector>
 
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/io/reader_options.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap {
@@ -54,12 +57,16 @@ struct grid_read_options {
     // Called on the calling thread after each chunk (long CSV) or file (directory) with the
     // bytes read so far and the total; may be empty.
     std::function<void(std::uint64_t done_bytes, std::uint64_t total_bytes)> progress;
+    // Delimiter, columns (x, y, z, current), units, z orientation, bias and temperature; for a
+    // directory, applied to every curve file (tipgap/io/reader_options.hpp).
+    reader_options reader;
 };
 
 // What was read.
 struct grid_layout {
     std::string path;                      // as given
     bool directory = false;                // a directory of curve files
+    bool arrays = false;                   // arrays in memory (grid_arrays.hpp), not a file
     curve_metadata metadata;               // the long CSV's '#' lines; for a directory the first
                                            // file's (by name)
     std::vector<double> x_m;               // distinct x values, ascending, m
@@ -68,6 +75,8 @@ struct grid_layout {
     std::uint64_t samples = 0;             // rows (or points) read in all
     std::uint64_t bytes = 0;               // bytes read
     std::vector<std::string> warnings;     // e.g. a missing line end at the end of the file
+    std::vector<std::string> notes;        // what the reader options decided against the file
+                                           // (curve_io.hpp, measured_curve::notes)
 };
 
 // Called once per pixel, concurrently: `slot` in [0, threads] identifies the calling thread
@@ -83,7 +92,8 @@ unsigned resolved_threads(const grid_read_options& options);
 // Reads a grid (a long CSV file or a directory of curve files) and visits every pixel.
 // path: file or directory. Throws tipgap::error (input) naming file:line:column for unreadable
 // files, a bad header or cell, a pixel repeated after other pixels, pixels that do not fill the
-// grid, unequal sample counts, or fewer than 1 pixel; the visitor may have seen some pixels by then.
+// grid, unequal sample counts, fewer than 1 pixel, or |I| rising with z in most pixels; the visitor
+// may have seen some pixels by then. Bad reader options throw as reader_options::validate(4).
 grid_layout read_grid(const std::string& path, const grid_read_options& options, const grid_visitor& visit);
 
 }  // namespace tipgap

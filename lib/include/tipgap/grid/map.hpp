@@ -97,4 +97,10 @@ struct barrier_map {
 // Throws tipgap::error (input) for a bad grid (see read_grid) or bad options.
 barrier_map make_barrier_map(const std::string& path, const map_options& options);
 
+// Where make_barrier_map's pixels come from: visits every pixel (concurrently, slots as for
+// read_grid) and returns the layout, e.g. read_grid on a path or visit_grid_arrays (grid_arrays.hpp).
+using grid_source = std::function<grid_layout(const grid_visitor& visit)>;
+// The same for any source; options.read.threads must match the slots the source uses.
+barrier_map make_barrier_map(const grid_source& source, const map_options& options);
+
 }  // namespace tipgap

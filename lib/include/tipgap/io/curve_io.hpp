@@ -1,14 +1,16 @@
 #pragma once
-// Reading one measured current-distance curve I(z) per CSV file.
+// Reading one measured current-distance curve I(z) per delimited text file.
 //
 // File layout (one curve per file):
 //   # bias: 100 mV                    optional metadata, "# key: value" (values with units)
 //   # setpoint_current: 1 nA
 //   # a comment without a colon is ignored
-//   z [nm],current [nA],direction     header: column names with units in brackets
+//   z [nm],current [nA],direction     header: column names with units
 //   0.00,1.02,approach                rows
-// Columns: `z` (length: m, cm, mm, um, nm, Å or A, pm), `current` (A, mA, uA, nA, pA, fA) and an
-// optional `direction` (approach | retract). Other named columns are read past and ignored.
+// Columns: `z` (length: m, cm, mm, um, nm, Å or A, pm), `current` or `I` (A, mA, uA, nA, pA, fA)
+// and an optional `direction` (approach | retract). Other columns are read past and ignored.
+// Delimiters, unit spellings, other column names, header-less files, z orientation and a bias
+// or temperature the file does not state: reader_options (tipgap/io/reader_options.hpp).
 // z is the relative tip displacement, increasing as the tip retracts; its zero is arbitrary.
 #include <cstddef>
 #include <optional>
@@ -18,6 +20,7 @@
 #include <vector>
 
 #include "tipgap/core/enum_names.hpp"
+#include "tipgap/io/reader_options.hpp"
 
 namespace tipgap {
 
@@ -67,16 +70,21 @@ struct measured_curve {
     std::vector<double> current_A;  // all rows, A
     bool has_direction_column = false;
     std::vector<curve_sweep> sweeps;  // approach/retract split (one entry when not split)
+    // What the reader options decided against the file: a bias, temperature or unit given that
+    // differs from the file's.
+    std::vector<std::string> notes;
 };
 
 // Reads and parses a curve file. Throws tipgap::error (input) with file:line:column for: an empty
-// file, a missing header, a missing z or current column, a column without or with an unknown unit,
-// a non-numeric, NaN or infinite cell, a row with the wrong number of cells, a bad direction
-// value, a bad metadata value for a known key, or fewer than 3 data rows.
-measured_curve read_curve_csv(const std::string& path);
+// file, a missing header, a missing z or current column (or one the options choose), a column
+// without or with an unknown unit, a non-numeric, NaN or infinite cell, a row with the wrong
+// number of cells, a bad direction value, a bad metadata value for a known key, fewer than 3
+// data rows, or |I| that clearly rises with z (io/orientation.hpp); bad options throw as
+// reader_options::validate(2).
+measured_curve read_curve_csv(const std::string& path, const reader_options& options = {});
 
 // Parses the text of a curve file; `file` names it in errors.
-measured_curve parse_curve_csv(std::string_view text, const std::string& file);
+measured_curve parse_curve_csv(std::string_view text, const std::string& file, const reader_options& options = {});
 
 // Splits rows into monotonic sweeps where z turns back. A turn is recognised once z has moved
 // back from its running extreme by more than `turn_fraction` of the total z range (so that piezo

@@ -42,6 +42,11 @@ public:
     // Lowest energy that carries current: the higher of the two band bottoms (J).
     double band_bottom_J() const { return band_bottom_; }
 
+    // The image-free part of U: phi_t + k x with k = (phi_s - eV - phi_t) / s. U minus this is the
+    // image term alone, which the gap derivative of the WKB exponent needs.
+    double tip_work_function_J() const { return phi_t_; }
+    double linear_slope_J_per_m() const { return slope_lin_; }
+
 private:
     double image_J(double x) const;
     double image_slope(double x) const;

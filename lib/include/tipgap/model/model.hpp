@@ -17,6 +17,8 @@ enum class method_kind {
     simmons,  // Simmons 1963 intermediate-voltage closed form over the same barrier; where the
               // formula is invalid (collapsed barrier, or thinner than about one decay length,
               // A sqrt(phibar) < 2) the numerical WKB result is used instead
+    exact,    // Schrödinger equation through the barrier (tipgap/model/exact_transmission.hpp) and
+              // the same Tsu-Esaki energy integral; field-emission resonances included
 };
 
 // Names in YAML, on the command line and in JSON (tipgap/core/enum_names.hpp); message order.
@@ -27,7 +29,8 @@ struct enum_names<image_kind> {
 };
 template <>
 struct enum_names<method_kind> {
-    static constexpr enum_name<method_kind> table[] = {{method_kind::wkb, "wkb"}, {method_kind::simmons, "simmons"}};
+    static constexpr enum_name<method_kind> table[] = {
+        {method_kind::wkb, "wkb"}, {method_kind::simmons, "simmons"}, {method_kind::exact, "exact"}};
 };
 
 struct electrode {

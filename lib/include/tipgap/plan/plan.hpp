@@ -27,15 +27,17 @@ struct plan_options {
     // 1e-21 m is a residual of ~2e-11; a bracket that closes on a step of the model's quadrature
     // noise ends here.
     double gap_tol_m = 1e-21;
-    int max_evaluations = 30;         // total-current evaluations per solve, both bracket ends included, [4, 200]
-    double slope_step_m = 0.01e-9;    // central-difference step for d ln|I|/ds (m), (0, 0.1 nm]
+    int max_evaluations = 30;         // total-current evaluations per solve, [4, 200]
+    // Formerly the central-difference step for d ln|I|/ds (m), (0, 0.1 nm]. Unused since the slope
+    // comes with each model evaluation; still validated so that existing callers keep working.
+    double slope_step_m = 0.01e-9;
 
     // Throws tipgap::error (input) naming the field when a value is out of range.
     void validate() const;
 };
 
 enum class solve_status {
-    converged,         // |ln I - ln I_set| <= log_current_tol, or the bracket closed to gap_tol_m
+    converged,         // |ln I - ln I_set| <= log_current_tol, or the bracket or step shrank to gap_tol_m
     current_too_high,  // even at gap_min_m the current is below the setpoint
     current_too_low,   // even at gap_max_m the current is above the setpoint
     not_converged,     // max_evaluations used up (gap_m is the best point found)
@@ -53,15 +55,20 @@ struct gap_solution {
     double gap_m = std::numeric_limits<double>::quiet_NaN();      // NaN when unreachable
     double current_A = std::numeric_limits<double>::quiet_NaN();  // model current at gap_m (sign of the bias)
     solve_status status = solve_status::not_converged;
+    // d ln|I|/ds at gap_m (1/m), from the same evaluation as current_A (NaN when unreachable).
+    double d_ln_current_ds_per_m = std::numeric_limits<double>::quiet_NaN();
     int evaluations = 0;   // total-current evaluations used (the cost of the solve)
-    int iterations = 0;    // evaluations after the two bracket ends (the root finder's own steps)
+    int iterations = 0;    // evaluations after the first two (the root finder's refining steps)
     std::string message;   // empty when converged; otherwise why, and which way to change the setpoint
     bool reachable() const { return status == solve_status::converged || status == solve_status::not_converged; }
 };
 
-// Solves ln|I(s)| = ln|current_A| for the gap s with Boost.Math's TOMS 748 bracketing solver
-// (Alefeld, Potra & Shi 1995, ACM TOMS 21, 327) on [gap_min_m, gap_max_m]. |I| falls monotonically
-// with the gap, so the bracket ends decide reachability.
+// Solves ln|I(s)| = ln|current_A| for the gap s on [gap_min_m, gap_max_m] by Newton's method with
+// the analytic slope that comes with each model evaluation, safeguarded by bisection inside the
+// bracket of evaluated gaps (Press et al., Numerical Recipes, 3rd ed. 2007, §9.4). It starts at
+// the geometric middle of the range; ln|I| is nearly linear in s, so a solve takes 4-6 evaluations.
+// |I| falls monotonically with the gap, so the ends of the range, evaluated when a step leaves it,
+// decide reachability.
 // c: validated configuration; current_A: setpoint (A), non-zero, its magnitude is used (the sign of
 // the current follows the bias); bias_V: sample bias (V), non-zero, |V| <= c.model.bias_limit_V.
 // Throws tipgap::error (input, keys "current" / "bias") for a zero/non-finite current or a bad bias.
@@ -81,7 +88,7 @@ struct plan_point {
     double apparent_barrier_J = std::numeric_limits<double>::quiet_NaN();    // (hbar^2/8m)(d ln|I|/ds)^2
     regime kind = regime::direct_tunnelling;
     std::vector<std::string> warnings;  // operating warnings, or the unreachable warning
-    int evaluations = 0;                // total-current evaluations incl. the slope (cost)
+    int evaluations = 0;                // total-current evaluations (the slope comes with them)
     bool reachable() const { return solution.reachable(); }
     // The requested current with the sign of the bias (A): the sign of a setpoint is not used.
     double signed_setpoint_A() const { return std::copysign(std::abs(setpoint_A), bias_V); }

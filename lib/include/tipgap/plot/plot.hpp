@@ -39,14 +39,19 @@ struct series {
     int look = next_look;                   // 0.. picks a look; next_look takes the next unused one
 };
 
-// A shaded region between two curves, e.g. a fit's confidence band. Drawn beneath the series in a
-// light tint of its look's colour.
+// How a band is filled: a light tint of its look's colour, or neutral light grey with darker grey
+// edges (stays distinct from every tint and from white in a grey print, e.g. a wide prediction band
+// around a narrow confidence band).
+enum class band_fill { tint, grey };
+
+// A shaded region between two curves, e.g. a fit's confidence band. Drawn beneath the series.
 struct band {
     std::vector<double> x;                  // data units, same length as y_low and y_high
     std::vector<double> y_low;              // lower edge
     std::vector<double> y_high;             // upper edge
     std::string label;                      // legend entry; empty: none
     int look = 0;                           // tint of this look's colour (use the fitted series' look)
+    band_fill fill = band_fill::tint;
 };
 
 enum class orientation { horizontal, vertical };
@@ -67,7 +72,9 @@ struct annotation {
     double justification = 0.0;             // 0: text starts at x, 0.5: centred, 1: ends at x
 };
 
-enum class legend_position { top_right, top_left, bottom_right, bottom_left, none };
+// best: the corner whose legend box covers the fewest drawn points (series, bands, reference lines);
+// when every corner covers some, the y range is raised so that the legend sits above the data.
+enum class legend_position { best, top_right, top_left, bottom_right, bottom_left, none };
 
 struct xy_panel {
     std::string title;
@@ -77,7 +84,7 @@ struct xy_panel {
     std::vector<band> bands;
     std::vector<reference_line> references;
     std::vector<annotation> notes;
-    legend_position legend = legend_position::top_right;
+    legend_position legend = legend_position::best;
 };
 
 // A matrix shown as coloured cells with a colour bar. The palette is tipgap's own: lightness rises

@@ -23,9 +23,14 @@ void throw_bad_number(const location& where, std::string_view column_name, std::
     }
 }
 
-void throw_cell_count(const location& where, int cells, int header_line, std::size_t columns) {
-    throw_input(where, fmt::format("the row has {} cell{}; the header on line {} has {} columns", cells,
-                                   cells == 1 ? "" : "s", header_line, columns));
+void throw_cell_count(const location& where, int cells, std::string_view header, std::size_t columns) {
+    throw_input(where, fmt::format("the row has {} cell{}; {} has {} columns", cells, cells == 1 ? "" : "s", header, columns));
+}
+
+void throw_rising_current(const location& where, std::string_view evidence, bool flipped) {
+    throw_input(where, fmt::format("|I| rises with z ({}): z must grow as the tip retracts; {}", evidence,
+                                   flipped ? "this file was read with --flip-z, which it does not need"
+                                           : "if z in this file grows as the tip approaches, read it with --flip-z"));
 }
 
 }  // namespace tipgap::detail

@@ -13,7 +13,13 @@ namespace tipgap::detail {
 [[noreturn]] void throw_bad_number(const location& where, std::string_view column_name, std::string_view cell,
                                    number_status status);
 
-// A row with `cells` cells under a header (on line header_line) of `columns` columns.
-[[noreturn]] void throw_cell_count(const location& where, int cells, int header_line, std::size_t columns);
+// A row with `cells` cells under a header of `columns` columns; header: "the header on line 3"
+// (csv_header::describe).
+[[noreturn]] void throw_cell_count(const location& where, int cells, std::string_view header, std::size_t columns);
+
+// A curve, or most pixels of a grid, whose |I| clearly rises with z (io/orientation.hpp). evidence:
+// what shows it, e.g. "median 1 nA over the quarter of the points with the largest z, 2 pA over
+// the quarter with the smallest"; flipped: the file was read with z flipped.
+[[noreturn]] void throw_rising_current(const location& where, std::string_view evidence, bool flipped);
 
 }  // namespace tipgap::detail

@@ -2,9 +2,8 @@
 #include "io/detail/csv_header.hpp"
 
 #include <cctype>
+#include <cmath>
 #include <fmt/format.h>
-
-#include "io/detail/csv_scan.hpp"
 
 namespace tipgap::detail {
 
@@ -17,17 +16,22 @@ bool iequals(std::string_view a, std::string_view b) {
     return true;
 }
 
-void split_header_cell(std::string_view cell, std::string_view& name, std::string_view& unit, bool& has_brackets) {
-    std::size_t open = cell.find('[');
-    std::size_t close = cell.rfind(']');
-    has_brackets = open != std::string_view::npos && close != std::string_view::npos && close > open;
-    if (!has_brackets) {
-        name = trim_cell(cell);
-        unit = {};
-        return;
+void split_header_cell(std::string_view cell, std::string_view& name, std::string_view& unit, bool& has_unit) {
+    cell = trim_cell(cell);
+    std::size_t open = cell.find('['), close = cell.rfind(']');
+    if (open == std::string_view::npos || close == std::string_view::npos || close < open) {
+        // "name (unit)": the last parenthesis at the end of the cell; "name/unit": the last slash.
+        close = !cell.empty() && cell.back() == ')' ? cell.size() - 1 : std::string_view::npos;
+        open = close != std::string_view::npos ? cell.rfind('(') : std::string_view::npos;
+        if (open == std::string_view::npos) {
+            const std::size_t slash = cell.rfind('/');
+            open = slash != std::string_view::npos && slash > 0 && slash + 1 < cell.size() ? slash : std::string_view::npos;
+            close = cell.size();
+        }
     }
-    name = trim_cell(cell.substr(0, open));
-    unit = trim_cell(cell.substr(open + 1, close - open - 1));
+    has_unit = open != std::string_view::npos;
+    name = trim_cell(has_unit ? cell.substr(0, open) : cell);
+    unit = has_unit ? trim_cell(cell.substr(open + 1, close - open - 1)) : std::string_view{};
 }
 
 double unit_factor(std::string_view unit, dimension d, std::string_view cell, const location& where) {
@@ -39,7 +43,28 @@ double unit_factor(std::string_view unit, dimension d, std::string_view cell, co
     }
 }
 
-void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta) {
+bool column_index(std::string_view spec, int& index) {
+    spec = trim_cell(spec);
+    if (spec.empty() || spec.size() > 9) return false;
+    for (char c : spec)
+        if (c < '0' || c > '9') return false;
+    index = std::stoi(std::string(spec));
+    return true;
+}
+
+bool same_column_spec(std::string_view a, std::string_view b) {
+    int ia = 0, ib = 0;
+    const bool a_index = column_index(a, ia), b_index = column_index(b, ib);
+    if (a_index || b_index) return a_index && b_index && ia == ib;
+    std::string_view na, nb, unit;
+    bool has = false;
+    split_header_cell(a, na, unit, has);
+    split_header_cell(b, nb, unit, has);
+    return iequals(na, nb);
+}
+
+void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta,
+                         bool decimal_comma) {
     std::string_view body = trim_cell(line.substr(line.find('#') + 1));
     std::size_t colon = body.find(':');
     if (colon == std::string_view::npos) return;  // a plain comment
@@ -50,21 +75,63 @@ void parse_metadata_line(std::string_view line, int line_number, const std::stri
     // Column of the value, for messages about a bad value of a known key.
     int value_column = static_cast<int>(value.data() - line.data()) + 1;
     location where{file, line_number, value_column, std::string(key)};
+    // A file written with decimal commas writes its metadata so too: "0,1 V".
+    std::string number(value);
+    if (decimal_comma && number.find('.') == std::string::npos && number.find(',') == number.rfind(',') &&
+        number.find(',') != std::string::npos) {
+        number[number.find(',')] = '.';
+    }
     if (key == "bias") {
-        meta.bias_V = parse_quantity(value, dimension::voltage, where);
+        meta.bias_V = parse_quantity(number, dimension::voltage, where);
     } else if (key == "temperature") {
-        meta.temperature_K = parse_quantity(value, dimension::temperature, where);
+        meta.temperature_K = parse_quantity(number, dimension::temperature, where);
     } else if (key == "setpoint_current") {
-        meta.setpoint_current_A = parse_quantity(value, dimension::current, where);
+        meta.setpoint_current_A = parse_quantity(number, dimension::current, where);
     } else if (key == "x") {
-        meta.x_m = parse_quantity(value, dimension::length, where);
+        meta.x_m = parse_quantity(number, dimension::length, where);
     } else if (key == "y") {
-        meta.y_m = parse_quantity(value, dimension::length, where);
+        meta.y_m = parse_quantity(number, dimension::length, where);
     } else if (key == "sample") {
         meta.sample = std::string(value);
     } else if (key == "tip") {
         meta.tip = std::string(value);
     }
+}
+
+namespace {
+
+// One override: the value given wins; a note when the file states another.
+void override_value(std::optional<double>& in_file, double given, const curve_metadata& meta, const char* key,
+                    const char* unit, std::vector<std::string>& notes) {
+    // Equal to the printed precision of a metadata value: no note for "100 mV" against 0.1 V.
+    constexpr double same_value = 1e-9;
+    if (in_file && std::abs(*in_file - given) > same_value * std::abs(given)) {
+        const std::string* written = meta.find(key);
+        notes.push_back(fmt::format("the file states {} {}; the given {:g} {} is used instead", key,
+                                    written ? *written : fmt::format("{:g} {}", *in_file, unit), given, unit));
+    }
+    in_file = given;
+}
+
+}  // namespace
+
+void apply_overrides(const reader_options& o, curve_metadata& meta, std::vector<std::string>& notes) {
+    if (o.bias_V) override_value(meta.bias_V, *o.bias_V, meta, "bias", "V", notes);
+    if (o.temperature_K) override_value(meta.temperature_K, *o.temperature_K, meta, "temperature", "K", notes);
+}
+
+column_choice choice_of(const reader_options& o, std::vector<std::string> units) {
+    column_choice c;
+    c.specs = o.columns;
+    c.units = std::move(units);
+    if (o.delimiter != delimiter_choice::detect) {
+        csv_dialect d;
+        d.delimiter = o.delimiter == delimiter_choice::comma ? ',' : o.delimiter == delimiter_choice::tab ? '\t'
+                      : o.delimiter == delimiter_choice::semicolon ? ';' : ' ';
+        d.decimal_comma = d.delimiter != ',';
+        c.dialect = d;
+    }
+    return c;
 }
 
 int csv_header::find(int rule) const {
@@ -74,95 +141,8 @@ int csv_header::find(int rule) const {
     return -1;
 }
 
-namespace {
-
-// The descriptor of one header cell: its name and unit, and for a known column its rule and the
-// SI scale of its unit.
-column_descriptor describe_cell(std::string_view cell, const location& where, const csv_format& format) {
-    std::string_view name, unit;
-    bool brackets = false;
-    split_header_cell(cell, name, unit, brackets);
-    column_descriptor d;
-    d.name = std::string(name);
-    d.unit = std::string(unit);
-    d.column = where.column;
-    for (std::size_t k = 0; k < format.rules.size(); ++k) {
-        if (!iequals(name, format.rules[k].name)) continue;
-        const column_rule& rule = format.rules[k];
-        d.rule = static_cast<int>(k);
-        if (!rule.unit) break;
-        if (!brackets || unit.empty()) {
-            throw_input(where, fmt::format("column '{}' has no unit; write it in brackets, e.g. '{}'", name, rule.unit_example));
-        }
-        d.scale = unit_factor(unit, *rule.unit, cell, where);
-        break;
-    }
-    return d;
-}
-
-}  // namespace
-
-csv_header parse_header_row(std::string_view line, int line_number, const std::string& file, const csv_format& format) {
-    csv_header header;
-    header.line = line_number;
-    cell_cursor cells(line);
-    std::string_view cell;
-    int column = 0;
-    while (cells.next(cell, column)) {
-        const location where{file, line_number, column, ""};
-        double probe = 0.0;
-        if (header.columns.empty() && parse_double(cell, probe) == number_status::ok) {
-            throw_input(where, fmt::format("no header row: the first row holds numbers; expected a header such as {} "
-                                           "before the data",
-                                           format.header_example));
-        }
-        column_descriptor d = describe_cell(cell, where, format);
-        if (d.rule >= 0 && header.find(d.rule) >= 0) {
-            throw_input(where, fmt::format("column '{}' appears twice in the header", d.name));
-        }
-        header.columns.push_back(std::move(d));
-    }
-    for (std::size_t k = 0; k < format.rules.size(); ++k) {
-        const column_rule& rule = format.rules[k];
-        if (!rule.required || header.find(static_cast<int>(k)) >= 0) continue;
-        const std::string missing =
-            rule.unit ? fmt::format("{} [<{} unit>]", rule.name, dimension_name(*rule.unit)) : std::string(rule.name);
-        throw_input(location{file, line_number, 1, ""},
-                    fmt::format("the header has no '{}' column; expected a header such as {}", missing,
-                                format.header_example));
-    }
-    return header;
-}
-
-csv_preamble read_preamble(std::string_view text, bool whole_file, const std::string& file, const csv_format& format) {
-    if (text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
-        throw_input(location{file, 0, 0, ""},
-                    fmt::format("the file is empty; expected a header row such as {} followed by data rows",
-                                format.header_example));
-    }
-    csv_preamble out;
-    line_cursor lines(text);
-    std::string_view line;
-    while (lines.next(line)) {
-        if (!whole_file && !lines.ended_by_newline()) {
-            throw_input(location{file, lines.line_number(), 0, ""},
-                        fmt::format("no header within the first {} bytes; expected a header such as {}", text.size(),
-                                    format.header_example));
-        }
-        const std::string_view t = trim_cell(line);
-        if (t.empty()) continue;
-        if (t.front() == '#') {
-            parse_metadata_line(line, lines.line_number(), file, out.metadata);
-            continue;
-        }
-        out.header = parse_header_row(line, lines.line_number(), file, format);
-        out.data_offset = lines.offset();
-        return out;
-    }
-    throw_input(location{file, 0, 0, ""},
-                fmt::format("no header row: the file holds only '#' lines; expected a header such as {} followed by "
-                            "data rows",
-                            format.header_example));
+std::string csv_header::describe() const {
+    return present ? fmt::format("the header on line {}", line) : fmt::format("the first row (line {})", line + 1);
 }
 
 }  // namespace tipgap::detail

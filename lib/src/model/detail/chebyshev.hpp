@@ -1,7 +1,9 @@
 #pragma once
 // Chebyshev interpolation on [a, b] at Chebyshev-Lobatto points x_j = cos(pi j / n), j = 0..n.
 // Doubling n reuses every earlier node, so an adaptive fit costs one function value per new node.
+#include <array>
 #include <cmath>
+#include <cstddef>
 #include <numbers>
 #include <vector>
 
@@ -49,6 +51,26 @@ public:
     }
 
     const std::vector<double>& coefficients() const { return c_; }
+
+    // Several interpolants on the same interval with the same number of coefficients, evaluated
+    // at one x with their Clenshaw recurrences interleaved: each recurrence is a chain of
+    // dependent operations, so running them side by side costs little more than one. Each result
+    // is bitwise operator()(x) of its interpolant. out[i] = (*fits[i])(x).
+    template <std::size_t N>
+    static void evaluate_together(const std::array<const chebyshev_interpolant*, N>& fits, double x,
+                                  std::array<double, N>& out) {
+        const chebyshev_interpolant& f0 = *fits[0];
+        double t = (2.0 * x - f0.a_ - f0.b_) / (f0.b_ - f0.a_);
+        std::array<double, N> b1{}, b2{};
+        for (int k = static_cast<int>(f0.c_.size()) - 1; k >= 1; --k) {
+            for (std::size_t i = 0; i < N; ++i) {
+                double b0 = 2.0 * t * b1[i] - b2[i] + fits[i]->c_[k];
+                b2[i] = b1[i];
+                b1[i] = b0;
+            }
+        }
+        for (std::size_t i = 0; i < N; ++i) out[i] = t * b1[i] - b2[i] + fits[i]->c_[0];
+    }
 
 private:
     double a_ = -1, b_ = 1;

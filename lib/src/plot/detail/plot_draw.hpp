@@ -3,6 +3,7 @@
 #include <plplot/plstream.h>
 
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "tipgap/core/error.hpp"
@@ -39,9 +40,24 @@ double to_plot(double v, axis_scale s);
 // explicit min/max in `a` take precedence. A degenerate range is opened around its value.
 range display_range(const std::vector<double>& plot_values, const axis& a);
 
-// Light grid, then (after the data) the frame with ticks, numbers, labels and the title.
+// Light grid, then (after the data) the frame with ticks, numbers, labels and the title. Both read
+// the current window: log axes spanning more than max_minor_decades decades get no minor ticks,
+// and linear axes are numbered in plain decimals (never PLplot's "(x10ⁿ)" scale label).
+inline constexpr double max_minor_decades = 3.0;
 void draw_grid(plstream& pls, const axis& x, const axis& y);
 void draw_frame(plstream& pls, const std::string& title, const axis& x, const axis& y);
+
+// The PLplot box options of an axis spanning `span` plot units (decades on a log axis); y: the
+// vertical axis. Exposed for tests.
+std::string box_options(const axis& a, double span, bool y);
+
+// The tick step of a linear axis spanning `span` plot units: 1, 2 or 5 times a power of ten, four
+// to eight ticks; 0 for an empty or non-finite span.
+double tick_step(double span);
+
+// A plain-decimal tick label for `value` on a linear axis spanning `span`: the decimals of the
+// tick step, no exponent, no "-0".
+std::string tick_label(double value, double span);
 
 // One legend entry: a line sample (with or without a marker), a filled box, or text alone.
 struct legend_entry {
@@ -53,8 +69,26 @@ struct legend_entry {
     double width = series_width;
     std::string marker;     // empty: none
 };
-// Draws the legend inside the current viewport's corner `where`; the viewport and window are
-// restored afterwards. PLplot cannot measure text, so the box width is estimated from the longest
+// The legend box in millimetres on the page for text of height text_height_mm.
+struct legend_box {
+    double width_mm = 0, height_mm = 0, inset_mm = 0;
+};
+legend_box legend_size(const std::vector<legend_entry>& entries, double text_height_mm);
+
+// Where a legend goes: the corner, and the top of the y range (plot coordinates) that makes room.
+struct legend_placement {
+    legend_position corner = legend_position::top_right;
+    double y_hi = 1;
+};
+// Places a legend of box_w x box_h (fractions of the plot area, inset included) for `requested`:
+// an explicit corner is kept; `best` takes the corner covering the fewest of `points` (plot
+// coordinates, preference top right, top left, bottom right, bottom left on ties), and when each
+// corner covers at least one, raises y.hi until a top corner is clear of every point.
+legend_placement place_legend(const std::vector<std::pair<double, double>>& points, const range& x, const range& y,
+                              double box_w, double box_h, legend_position requested);
+
+// Draws the legend inside the current viewport's corner `where` (not `best`); the viewport and
+// window are restored afterwards. PLplot cannot measure text, so the box width is estimated from the longest
 // entry (0.7 text heights a character, generous for the sans face used).
 void draw_legend(plstream& pls, const std::vector<legend_entry>& entries, legend_position where, const cell& c);
 
@@ -62,6 +96,16 @@ void draw_legend(plstream& pls, const std::vector<legend_entry>& entries, legend
 void draw_broken_line(plstream& pls, const std::vector<double>& x, const std::vector<double>& y);
 // Draws a glyph at every finite point.
 void draw_markers(plstream& pls, const std::vector<double>& x, const std::vector<double>& y, const char* glyph);
+
+// An x–y panel's ranges, looks, legend and legend corner, as draw_xy uses them; the plot area is
+// plot_width_mm x plot_height_mm with text text_height_mm high. Exposed for tests.
+struct xy_layout {
+    range x, y;                          // plot coordinates (log10 of the data on a log axis)
+    std::vector<int> looks;              // per series
+    std::vector<legend_entry> legend;
+    legend_position corner = legend_position::top_right;
+};
+xy_layout layout_xy(const xy_panel& p, double plot_width_mm, double plot_height_mm, double text_height_mm);
 
 // Panel drawers (each validates nothing: write_figure has done that).
 void draw_xy(plstream& pls, const xy_panel& p, const cell& c);

@@ -42,6 +42,10 @@ inline constexpr rgb no_value_hatch{128, 128, 128};
 inline constexpr rgb bar_fill{150, 172, 196};
 inline constexpr rgb bar_edge{52, 70, 96};
 inline constexpr rgb legend_frame{178, 178, 184};
+// A grey band: fill lighter than every tint (grey level 232 against about 212), edges darker than
+// the grid, so the band and a tinted band inside it stay apart in colour and in grey.
+inline constexpr rgb band_grey{232, 232, 236};
+inline constexpr rgb band_edge{140, 140, 146};
 
 // cmap0 slots.
 enum colour_index : int {
@@ -54,7 +58,9 @@ enum colour_index : int {
     ci_bar_fill = 6,
     ci_bar_edge = 7,
     ci_legend_frame = 8,
-    ci_look = 9,                                  // ci_look + i: colour of look i
+    ci_band_grey = 9,
+    ci_band_edge = 10,
+    ci_look = 11,                                 // ci_look + i: colour of look i
     ci_tint = ci_look + static_cast<int>(look_count),  // ci_tint + i: band tint of look i
     ci_count = ci_tint + static_cast<int>(look_count),
 };
