@@ -73,7 +73,7 @@ void assign_by_choice(std::vector<column_descriptor>& columns, const csv_format&
         if (!format.rules[k].required) continue;
         const int c = resolve_spec(choice.specs[next++], columns, format.rules[k], header_line);
         if (columns[c].rule >= 0) {
-            throw_input(header_line, fmt::format("column '{}' is chosen for both {} and {}", columns[c].name,
+            throw_input(header_line, fmt::format("column {} is chosen for both {} and {}", quote_input(columns[c].name, 30),
                                                  format.rules[columns[c].rule].name, format.rules[k].name));
         }
         columns[c].rule = static_cast<int>(k);
@@ -91,7 +91,7 @@ void assign_by_names(std::vector<column_descriptor>& columns, const csv_format& 
             if (!iequals(d.name, rule.name) && (rule.alias.empty() || !iequals(d.name, rule.alias))) continue;
             for (const column_descriptor& other : columns) {
                 if (other.rule == static_cast<int>(k))
-                    throw_input(location{file, line_number, d.column, ""}, fmt::format("column '{}' appears twice in the header", d.name));
+                    throw_input(location{file, line_number, d.column, ""}, fmt::format("column {} appears twice in the header", quote_input(d.name, 30)));
             }
             d.rule = static_cast<int>(k);
             break;
@@ -111,7 +111,7 @@ void set_scales(std::vector<column_descriptor>& columns, const csv_format& forma
         const std::string given = d.rule < static_cast<int>(choice.units.size()) ? choice.units[d.rule] : "";
         if (given.empty()) {
             if (d.unit.empty())
-                throw_input(where, fmt::format("column '{}' has no unit; write it in brackets, e.g. '{}'", d.name, rule.unit_example));
+                throw_input(where, fmt::format("column {} has no unit; write it in brackets, e.g. '{}'", quote_input(d.name, 30), rule.unit_example));
             d.scale = unit_factor(d.unit, dim, d.text, where);
             continue;
         }
@@ -122,8 +122,8 @@ void set_scales(std::vector<column_descriptor>& columns, const csv_format& forma
         } catch (const error&) {
         }
         if (header_scale != d.scale) {
-            notes.push_back(fmt::format("column '{}': the header gives the unit '{}'; the given unit '{}' is used instead",
-                                        d.name, d.unit, given));
+            notes.push_back(fmt::format("column {}: the header gives the unit {}; the given unit '{}' is used instead",
+                                        quote_input(d.name, 30), quote_input(d.unit, 20), given));
         }
         d.unit = given;
     }
