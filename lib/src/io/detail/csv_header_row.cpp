@@ -40,9 +40,13 @@ std::vector<column_descriptor> header_cells(std::string_view line, csv_dialect d
     return out;
 }
 
+// The header's names for a message: the first few, each clipped, so that the line stays short.
 std::string name_list(const std::vector<column_descriptor>& columns) {
+    constexpr std::size_t shown = 8;
     std::string out;
-    for (const column_descriptor& c : columns) out += fmt::format("{}{}", out.empty() ? "" : ", ", quote_input(c.name, 30));
+    for (std::size_t c = 0; c < columns.size() && c < shown; ++c)
+        out += fmt::format("{}{}", c == 0 ? "" : ", ", quote_input(columns[c].name, 30));
+    if (columns.size() > shown) out += fmt::format(", ... ({} columns)", columns.size());
     return out;
 }
 
