@@ -78,10 +78,10 @@ void print_read_options(const demo_report& r) {
         if (d.curve.get() == last) continue;
         last = d.curve.get();
         std::string flags;
-        for (const auto& [key, value] : settings(d.read)) flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
-        if (!flags.empty())
-            fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", fs::path(d.curve->file).filename().string(),
-                       fs::path(d.curve->file).filename().string(), flags);
+        for (const auto& [key, value] : settings(d.read))
+            flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
+        const std::string name = fs::path(d.curve->file).filename().string();
+        if (!flags.empty()) fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", name, name, flags);
     }
 }
 

@@ -204,6 +204,10 @@ TEST(delimited_reader, layout_errors_give_exact_messages) {
     EXPECT_EQ(message_of("z (furlong)\tcurrent (pA)\n"),
               "c.txt:1:1: unknown unit 'furlong' in 'z (furlong)'; expected a length in m, cm, mm, um, nm, Å (or A), pm");
     EXPECT_EQ(message_of("z/nm;I\n"), "c.txt:1:6: column 'I' has no unit; write it in brackets, e.g. 'current [nA]'");
+    // A column chosen by index may have any name: it is quoted and clipped like any input (found by
+    // fuzz_curve_csv: tests/fuzz/seeds/curve_csv/regression_column_name_by_index.csv).
+    EXPECT_EQ(message_of("a\x01" + std::string(100, 'b') + ",I (pA)\n", with_columns({"1", "2"})),
+              "c.txt:1:1: column 'a\\x01bbbbbbbbbbbbbbbbbbbbbbbbbbbb...' has no unit; write it in brackets, e.g. 'z [nm]'");
     reader_options headerless = with_columns({"1", "2"});
     headerless.z_unit = "nm";
     headerless.current_unit = "pA";

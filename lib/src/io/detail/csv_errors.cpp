@@ -6,20 +6,22 @@
 namespace tipgap::detail {
 
 void throw_bad_number(const location& where, std::string_view column_name, std::string_view cell, number_status status) {
+    // The name as read from the header (any text, when the column was chosen by index).
+    const std::string column = quote_input(column_name, 30);
     switch (status) {
         case number_status::empty:
-            throw_input(where, fmt::format("empty cell in column '{}'; expected a number", column_name));
+            throw_input(where, fmt::format("empty cell in column {}; expected a number", column));
         case number_status::not_finite:
-            throw_input(where, fmt::format("{} in column '{}' is not a finite number; expected a finite value",
-                                           quote_input(cell), column_name));
+            throw_input(where, fmt::format("{} in column {} is not a finite number; expected a finite value",
+                                           quote_input(cell), column));
         case number_status::out_of_range:
-            throw_input(where, fmt::format("{} in column '{}' is outside the range of a double; expected a magnitude of 0 "
+            throw_input(where, fmt::format("{} in column {} is outside the range of a double; expected a magnitude of 0 "
                                            "or between about 1e-308 and 1e308",
-                                           quote_input(cell), column_name));
+                                           quote_input(cell), column));
         default:
-            throw_input(where, fmt::format("{} in column '{}' is not a number; expected a plain number such as 0.25 (the "
+            throw_input(where, fmt::format("{} in column {} is not a number; expected a plain number such as 0.25 (the "
                                            "unit goes in the header)",
-                                           quote_input(cell), column_name));
+                                           quote_input(cell), column));
     }
 }
 

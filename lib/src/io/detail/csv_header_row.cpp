@@ -40,9 +40,13 @@ std::vector<column_descriptor> header_cells(std::string_view line, csv_dialect d
     return out;
 }
 
+// The header's names for a message: the first few, each clipped, so that the line stays short.
 std::string name_list(const std::vector<column_descriptor>& columns) {
+    constexpr std::size_t shown = 8;
     std::string out;
-    for (const column_descriptor& c : columns) out += fmt::format("{}{}", out.empty() ? "" : ", ", quote_input(c.name, 30));
+    for (std::size_t c = 0; c < columns.size() && c < shown; ++c)
+        out += fmt::format("{}{}", c == 0 ? "" : ", ", quote_input(columns[c].name, 30));
+    if (columns.size() > shown) out += fmt::format(", ... ({} columns)", columns.size());
     return out;
 }
 
@@ -73,7 +77,7 @@ void assign_by_choice(std::vector<column_descriptor>& columns, const csv_format&
         if (!format.rules[k].required) continue;
         const int c = resolve_spec(choice.specs[next++], columns, format.rules[k], header_line);
         if (columns[c].rule >= 0) {
-            throw_input(header_line, fmt::format("column '{}' is chosen for both {} and {}", columns[c].name,
+            throw_input(header_line, fmt::format("column {} is chosen for both {} and {}", quote_input(columns[c].name, 30),
                                                  format.rules[columns[c].rule].name, format.rules[k].name));
         }
         columns[c].rule = static_cast<int>(k);
@@ -91,7 +95,7 @@ void assign_by_names(std::vector<column_descriptor>& columns, const csv_format& 
             if (!iequals(d.name, rule.name) && (rule.alias.empty() || !iequals(d.name, rule.alias))) continue;
             for (const column_descriptor& other : columns) {
                 if (other.rule == static_cast<int>(k))
-                    throw_input(location{file, line_number, d.column, ""}, fmt::format("column '{}' appears twice in the header", d.name));
+                    throw_input(location{file, line_number, d.column, ""}, fmt::format("column {} appears twice in the header", quote_input(d.name, 30)));
             }
             d.rule = static_cast<int>(k);
             break;
@@ -111,7 +115,7 @@ void set_scales(std::vector<column_descriptor>& columns, const csv_format& forma
         const std::string given = d.rule < static_cast<int>(choice.units.size()) ? choice.units[d.rule] : "";
         if (given.empty()) {
             if (d.unit.empty())
-                throw_input(where, fmt::format("column '{}' has no unit; write it in brackets, e.g. '{}'", d.name, rule.unit_example));
+                throw_input(where, fmt::format("column {} has no unit; write it in brackets, e.g. '{}'", quote_input(d.name, 30), rule.unit_example));
             d.scale = unit_factor(d.unit, dim, d.text, where);
             continue;
         }
@@ -122,8 +126,8 @@ void set_scales(std::vector<column_descriptor>& columns, const csv_format& forma
         } catch (const error&) {
         }
         if (header_scale != d.scale) {
-            notes.push_back(fmt::format("column '{}': the header gives the unit '{}'; the given unit '{}' is used instead",
-                                        d.name, d.unit, given));
+            notes.push_back(fmt::format("column {}: the header gives the unit {}; the given unit '{}' is used instead",
+                                        quote_input(d.name, 30), quote_input(d.unit, 20), given));
         }
         d.unit = given;
     }
