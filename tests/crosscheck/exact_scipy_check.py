@@ -32,20 +32,7 @@ import tempfile
 import numpy as np
 from scipy import integrate, optimize, special
 
-# ---- CODATA 2018 (NIST SP 961, 2019; physics.nist.gov/constants) ----
-H = 6.62607015e-34          # Planck constant, J s (exact)
-HBAR = H / (2.0 * math.pi)  # J s
-E_CHARGE = 1.602176634e-19  # elementary charge, C (exact)
-K_B = 1.380649e-23          # Boltzmann constant, J/K (exact)
-M_E = 9.1093837015e-31      # electron mass, kg
-EPS0 = 8.8541878128e-12     # vacuum permittivity, F/m
-
-# Working units: eV, nm, V.
-COULOMB_EV_NM = E_CHARGE / (4.0 * math.pi * EPS0) * 1e9  # e^2/(4 pi eps0), eV nm
-K2 = 2.0 * M_E * E_CHARGE / HBAR**2 * 1e-18              # 2m/hbar^2, nm^-2 eV^-1
-TSU_ESAKI = 4.0 * math.pi * M_E * E_CHARGE / H**3 * E_CHARGE**2  # A m^-2 per eV^2
-KB_EV = K_B / E_CHARGE
-EULER_GAMMA = float(np.euler_gamma)
+from scipy_common import (COULOMB_EV_NM, EULER_GAMMA, K2, KB_EV, TSU_ESAKI, Checks)  # CODATA 2018, working units
 
 REL_TOL = 1e-5       # agreement demanded of tipgap (issue 12, deliver 3)
 TABLE_TOL = 1e-9     # a recomputed row must match the committed table to this (ODE rtol 1e-12)
@@ -169,14 +156,8 @@ def current_density(j, s, V, T, panel_eV=0.02):
 # Self-checks of this reference.
 
 def self_checks():
-    failures = []
-
-    def check(name, got, want, tol):
-        rel = abs(got / want - 1.0)
-        ok = rel <= tol
-        print(f"  {'ok  ' if ok else 'FAIL'} {name}: {got:.12e} vs {want:.12e} (rel {rel:.2e}, tol {tol:.0e})")
-        if not ok:
-            failures.append(name)
+    checks = Checks()
+    check, failures = checks.check, checks.failures
 
     print("Self-checks of the SciPy reference:")
     check("2m/hbar^2 = 26.2468 nm^-2 eV^-1 (common practice, no source)", K2, 26.2468, 1e-5)

@@ -28,20 +28,7 @@ import tempfile
 import numpy as np
 from scipy import integrate, optimize, special
 
-# ---- CODATA 2018 (NIST SP 961, 2019; physics.nist.gov/constants) ----
-H = 6.62607015e-34          # Planck constant, J s (exact)
-HBAR = H / (2.0 * math.pi)  # J s
-E_CHARGE = 1.602176634e-19  # elementary charge, C (exact)
-K_B = 1.380649e-23          # Boltzmann constant, J/K (exact)
-M_E = 9.1093837015e-31      # electron mass, kg
-EPS0 = 8.8541878128e-12     # vacuum permittivity, F/m
-
-# Working units: energies in eV, lengths in nm, bias in V (so eV in eV equals V numerically).
-COULOMB_EV_NM = E_CHARGE / (4.0 * math.pi * EPS0) * 1e9      # e^2/(4 pi eps0) = 1.439964... eV nm
-WKB_PER_NM_SQRT_EV = 2.0 * math.sqrt(2.0 * M_E * E_CHARGE) / HBAR * 1e-9  # (2/hbar) sqrt(2 m), nm^-1 eV^-1/2
-TSU_ESAKI = 4.0 * math.pi * M_E * E_CHARGE / H**3 * E_CHARGE**2  # A m^-2 per eV^2
-KB_EV = K_B / E_CHARGE                                         # eV/K
-EULER_GAMMA = float(np.euler_gamma)
+from scipy_common import (COULOMB_EV_NM, EULER_GAMMA, KB_EV, TSU_ESAKI, WKB_PER_NM_SQRT_EV, Checks)  # CODATA 2018, working units
 
 # The agreement demanded of tipgap (issue 2, section 5, test 8).
 REL_TOL = 1e-5
@@ -203,14 +190,8 @@ def rectangular_zero_bias_closed_form(phi, ef, s_nm):
 
 
 def self_checks():
-    failures = []
-
-    def check(name, got, want, tol):
-        rel = abs(got / want - 1.0)
-        ok = rel <= tol
-        print(f"  {'ok  ' if ok else 'FAIL'} {name}: {got:.12e} vs {want:.12e} (rel {rel:.2e}, tol {tol:.0e})")
-        if not ok:
-            failures.append(name)
+    checks = Checks()
+    check, failures = checks.check, checks.failures
 
     print("Self-checks of the SciPy reference:")
     # CODATA-derived coefficient: kappa = 0.5123 A^-1 sqrt(phi/eV) (common practice) = WKB/2 per A.
