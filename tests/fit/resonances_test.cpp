@@ -60,6 +60,16 @@ bias_trace sample(const lorentz_trace& L, double noise_m, std::uint64_t seed) {
     return t;
 }
 
+// The built-in junction with method exact, biases up to 12 V and the sample work function phi_eV:
+// the "truth" of the self-consistency traces below.
+config exact_truth(double phi_eV) {
+    config c = default_config();
+    c.model.method = method_kind::exact;
+    c.model.bias_limit_V = 12;
+    c.model.sample.work_function_J = phi_eV * J_per_eV;
+    return c;
+}
+
 }  // namespace
 
 // On a noise-free 50 mV grid the cubic refinement puts each peak within 6 mV of the analytic
@@ -152,10 +162,7 @@ TEST(resonance_formula, inverts_its_own_series_from_slope_and_from_series) {
 // configured 5.3 eV): the fit must move to 4.8 eV and reproduce the peaks (self-consistency; the
 // recovery from an independent generator is tests/cli/resonances_cli.sh).
 TEST(resonance_model, recovers_work_function_of_own_model_trace) {
-    config truth = default_config();
-    truth.model.method = method_kind::exact;
-    truth.model.bias_limit_V = 12;
-    truth.model.sample.work_function_J = 4.8 * J_per_eV;
+    const config truth = exact_truth(4.8);
     bias_trace t;
     t.kind = trace_kind::zv;
     t.current_A = 1e-9;
@@ -195,10 +202,7 @@ TEST(resonance_model, needs_the_setpoint_current) {
 // units: the model is scaled onto it): the same resonances, found as peaks of dI/dV itself, and the
 // model fit recovers the work function (self-consistency of the dI/dV path).
 TEST(resonance_model, recovers_work_function_from_didv_trace) {
-    config truth = default_config();
-    truth.model.method = method_kind::exact;
-    truth.model.bias_limit_V = 12;
-    truth.model.sample.work_function_J = 5.0 * J_per_eV;
+    const config truth = exact_truth(5.0);
     bias_trace t;
     t.kind = trace_kind::didv;
     t.arbitrary_units = true;
