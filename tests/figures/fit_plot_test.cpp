@@ -24,7 +24,8 @@ struct fitted {
 
 fitted clean_demo_fit() {
     fitted f{read_curve_csv(std::string(TIPGAP_SOURCE_DIR) + "/demo_scans/01_w_au111_clean.csv"), {}};
-    f.fit = fit_curve(f.curve, fit_options{}).at(0);
+    // The bands are drawn for the linear model (the offset model draws its curve only).
+    f.fit = fit_curve(f.curve, fit_options{.model = fit_model::linear}).at(0);
     return f;
 }
 

@@ -75,7 +75,6 @@ family_stats run_family(const family& f, std::uint64_t seed0) {
                                        std::numeric_limits<double>::quiet_NaN(), fit_options{});
         covered += r.decay_constant_ci_low_per_m <= true_kappa && true_kappa <= r.decay_constant_ci_high_per_m;
         const double z = (r.decay_constant_per_m - true_kappa) / r.decay_constant_stderr_per_m;
-        if (std::getenv("COV_DEBUG") && std::abs(z) > 3) std::printf("  curve %d z %.2f eps %.4f sI %.3g chi2 %.2f kappa %.4f se %.4f it %d p %.2g\n", k, z, r.relative_noise, r.current_noise_A, r.reduced_chi_square, r.decay_constant_per_m*1e-9, r.decay_constant_stderr_per_m*1e-9, r.iterations, r.curvature_p_value);
         sz += z;
         szz += z * z;
         schi += r.reduced_chi_square;

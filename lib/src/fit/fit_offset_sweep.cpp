@@ -147,6 +147,15 @@ void record_offset_fit(fit_result& r, const fit_workspace& ws, const point_selec
     std::vector<double> w;
     of = iterate_noise(pb, of, d, opt, nm, w);
 
+    // χ² against the noise model; when the curve scatters more than the model says (a curved
+    // ln|I|, drift), the errors are scaled by the Birge ratio sqrt(χ²/dof) (Birge, Phys. Rev. 40,
+    // 207 (1932); as scipy.optimize.curve_fit with absolute_sigma=False), never made smaller.
+    const double dof = static_cast<double>(d.z.size()) - 3.0;
+    r.reduced_chi_square = w.empty() ? 0.0 : of.ssr / dof;
+    const double birge = std::sqrt(std::max(1.0, r.reduced_chi_square));
+    of.amplitude_stderr_A *= birge;
+    of.rate_stderr_per_m *= birge;
+    of.offset_stderr_A *= birge;
     r.z_ref_m = pb.z_ref_m;
     r.iterations = of.evaluations;
     r.status = of.converged ? fit_status::converged : fit_status::not_converged;
@@ -160,8 +169,6 @@ void record_offset_fit(fit_result& r, const fit_workspace& ws, const point_selec
     r.current_noise_A = nm.current_noise_A;
     r.relative_noise = nm.relative_noise;
     record_statistics(r, d, of, pb.z_ref_m);
-    const double dof = static_cast<double>(d.z.size()) - 3.0;
-    r.reduced_chi_square = w.empty() ? 0.0 : of.ssr / dof;
     r.curvature_p_value = curvature_p_value(pb, of, w);
     fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, t_quantile(dof, r.confidence_level));
     if (r.curvature_p_value < curvature_level) {
