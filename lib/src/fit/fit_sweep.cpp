@@ -246,9 +246,21 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
                                              r.points_below_floor, n, detail::format_current(r.noise_floor_A)));
         }
     } else {
-        // The offset model uses every point outside contact and saturation.
-        detail::record_offset_fit(r, ws, selection, linear.line, opt, where);
-        r.current_decades_used = detail::current_decades(ws);
+        // The offset model uses every point outside contact and saturation. On a sweep that does
+        // not determine its three parameters (a few scattered points: the covariance is singular)
+        // the linear model's result is reported instead, with a warning.
+        fit_result trial = r;
+        detail::record_offset_fit(trial, ws, selection, linear.line, opt, where);
+        if (std::isfinite(trial.decay_constant_per_m) && std::isfinite(trial.decay_constant_stderr_per_m) &&
+            std::isfinite(trial.offset_stderr_A)) {
+            r = std::move(trial);
+            r.current_decades_used = detail::current_decades(ws);
+        } else {
+            detail::record_linear_fit(r, ws, linear.line);
+            r.model = fit_model::linear;
+            r.warnings.push_back("the offset model is undetermined on this sweep (singular covariance): the linear "
+                                 "model's result is reported");
+        }
     }
     add_warnings(r, opt);
     r.profile = local_profile(ws, opt, r.contact, r.warnings);
