@@ -118,7 +118,7 @@ std::string describe_summary(const fit_summary& s) {
         k.count, k.mean * 1e-9, k.standard_error * 1e-9, k.birge_ratio, k.spread * 1e-9, p.mean / eV, p.standard_error / eV,
         p.birge_ratio, p.spread / eV);
     if (std::isfinite(s.hysteresis_per_m)) {
-        out += fmt::format("  approach - retract: kappa {:+.2g} +- {:.2g} /nm over {} and {} sweeps, p = {:.2g}{}\n",
+        out += fmt::format("  approach - retract: kappa {:+.3g} +- {:.2g} /nm over {} and {} sweeps, p = {:.2g}{}\n",
                            s.hysteresis_per_m * 1e-9, s.hysteresis_stderr_per_m * 1e-9, s.approach_decay_per_m.count,
                            s.retract_decay_per_m.count, s.hysteresis_p_value,
                            s.hysteresis_p_value < 0.01 ? " (significant hysteresis: drift or a tip change?)" : "");
