@@ -58,6 +58,22 @@ for key in ["decay_constant_ci_low_per_nm", "apparent_barrier_stderr_eV", "r_squ
 assert [x["direction"] for x in c[1:]] == ["approach", "retract"]
 near(c[1]["decay_constant_per_nm"], 10.0, RTOL, "approach kappa")
 near(c[2]["decay_constant_per_nm"], 9.0, RTOL, "retract kappa")
+# Several sweeps: the summary (fit_summary.hpp). Weighted mean of kappa with w = 1/se^2, approach
+# minus retract over the sweeps of each direction (here 10 - mean of the two retracts).
+s = doc["summary"]
+assert s["sweeps"] == 3 and s["approach_sweeps"] == 1 and s["retract_sweeps"] == 2, s
+w = [1 / x["decay_constant_stderr_per_nm"] ** 2 for x in c]
+mean = sum(wi * x["decay_constant_per_nm"] for wi, x in zip(w, c)) / sum(w)
+near(s["decay_constant_mean_per_nm"], mean, 1e-12, "weighted mean")
+wr = [w[0], w[2]]
+retract = (wr[0] * c[0]["decay_constant_per_nm"] + wr[1] * c[2]["decay_constant_per_nm"]) / sum(wr)
+near(s["approach_minus_retract_per_nm"], c[1]["decay_constant_per_nm"] - retract, 1e-9, "approach - retract")
+# The two retract sweeps (10 and 9 /nm, exact) disagree far beyond their errors: the Birge ratio
+# scales the retract mean's error up to their scatter, and the difference is then not significant.
+assert s["decay_constant_birge_ratio"] > 1e6, s
+zscore = abs(s["approach_minus_retract_per_nm"]) / s["approach_minus_retract_stderr_per_nm"]
+near(s["approach_minus_retract_p_value"], math.erfc(zscore / math.sqrt(2)), 1e-9, "p value")  # 2(1 - Phi(z))
+assert s["approach_minus_retract_p_value"] > 0.05, s
 EOF
 
 # CSV: the header, and the same numbers as the JSON to the last digit (17 significant digits).
