@@ -102,8 +102,9 @@ std::vector<column<f>> slope_columns() {
         {"z_ref_nm", "", [](const f& x) { return x.result.z_ref_m; }, to_nm, {}, in_json},
         {"offset_A", "", [](const f& x) { return x.result.offset_A; }, {}, {}, in_data},
         {"offset_stderr_A", "", [](const f& x) { return x.result.offset_stderr_A; }, {}, {}, in_data},
-        {"offset_A", "offset [pA]", [](const f& x) { return x.result.offset_A; }, times(1e12), fixed(2), in_table, nullptr, "", 11},
-        {"offset_stderr_A", "+-", [](const f& x) { return x.result.offset_stderr_A; }, times(1e12), fixed(2), in_table, nullptr, "", 6},
+        // The linear model estimates no offset: "-" in the table.
+        {"offset_A", "offset [pA]", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 11},
+        {"offset_stderr_A", "+-", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_stderr_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 6},
         {"r_squared", "R^2", [](const f& x) { return x.result.r_squared; }, {}, fixed(5), everywhere, nullptr, "", 8},
         {"reduced_chi_square", "chi2/dof", [](const f& x) { return x.result.reduced_chi_square; }, {}, fixed(2), everywhere, nullptr, "", 9},
         {"relative_noise", "", [](const f& x) { return x.result.relative_noise; }, {}, {}, in_data},
