@@ -49,13 +49,15 @@ offset_data usable_points(fit_result& r, const fit_workspace& ws, const point_se
 
 double exponential_part(const offset_fit& of, double x) { return of.amplitude_A * std::exp(-of.rate_per_m * x); }
 
-// The weights 1/σ² of the noise model at the fitted exponential; false when one is not finite.
+// The weights 1/σ² of the noise model at the fitted exponential; false (and w unchanged) when one
+// is not finite, so that w always holds the weights of the last weighted fit.
 bool noise_weights(const offset_data& d, double z_ref, const offset_fit& of, const noise_model& nm, std::vector<double>& w) {
-    w.resize(d.z.size());
+    std::vector<double> next(d.z.size());
     for (std::size_t k = 0; k < d.z.size(); ++k) {
-        w[k] = 1.0 / nm.variance(exponential_part(of, d.z[k] - z_ref));
-        if (!std::isfinite(w[k]) || !(w[k] > 0.0)) return false;
+        next[k] = 1.0 / nm.variance(exponential_part(of, d.z[k] - z_ref));
+        if (!std::isfinite(next[k]) || !(next[k] > 0.0)) return false;
     }
+    w.swap(next);
     return true;
 }
 
