@@ -22,7 +22,11 @@ namespace {
 
 struct fit_args {
     std::vector<std::string> files;
-    fit_flags flags{.model = "offset"};  // honest offset and noise model by default (issue 10)
+    fit_flags flags = [] {
+        fit_flags f;
+        f.model = "offset";  // honest offset and noise model by default (issue 10); map keeps linear
+        return f;
+    }();
     read_flags read;
     output_format format = output_format::table;
     std::string output;

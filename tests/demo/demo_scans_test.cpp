@@ -38,7 +38,9 @@ TEST(demo_scans, fit_recovers_truth_within_stated_uncertainty) {
             EXPECT_GE(truth, fits[k].decay_constant_ci_low_per_m) << e.path() << " sweep " << k;
             EXPECT_LE(truth, fits[k].decay_constant_ci_high_per_m) << e.path() << " sweep " << k;
             EXPECT_NEAR(honest[k].decay_constant_per_m, truth, 0.01 * truth) << e.path() << " sweep " << k;
-            if (honest[k].reduced_chi_square > 10.0) EXPECT_LT(honest[k].curvature_p_value, 1e-3) << e.path();
+            if (honest[k].reduced_chi_square > 10.0) {
+                EXPECT_LT(honest[k].curvature_p_value, 1e-3) << e.path();
+            }
             std::printf("%s %s: kappa %.4f +- %.4f (default: %.4f +- %.4f, chi2/dof %.3g), truth %.4f /nm\n",
                         e.path().filename().c_str(), to_string(fits[k].direction), fits[k].decay_constant_per_m * 1e-9,
                         fits[k].decay_constant_stderr_per_m * 1e-9, honest[k].decay_constant_per_m * 1e-9,

@@ -125,6 +125,10 @@ offset_fit fit_offset_model(const offset_problem& pb) {
         out.curvature_per_m2 = p(3) / (length_scale * length_scale);
         out.curvature_stderr_per_m2 = std::sqrt(cov(3, 3)) / (length_scale * length_scale);
     }
+    const double unit[3] = {current_scale, 1.0 / length_scale, current_scale};
+    out.covariance.resize(9);
+    for (int a = 0; a < 3; ++a)
+        for (int b = 0; b < 3; ++b) out.covariance[static_cast<std::size_t>(3 * a + b)] = cov(a, b) * unit[a] * unit[b];
     // Leverages h_i = Σ_k U_ik² over the non-zero singular values (the hat matrix's diagonal).
     out.leverage.assign(static_cast<std::size_t>(n), 0.0);
     for (Eigen::Index i = 0; i < n; ++i)

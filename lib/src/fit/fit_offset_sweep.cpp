@@ -166,6 +166,8 @@ void record_offset_fit(fit_result& r, const fit_workspace& ws, const point_selec
     of.amplitude_stderr_A *= birge;
     of.rate_stderr_per_m *= birge;
     of.offset_stderr_A *= birge;
+    r.parameter_covariance = of.covariance;
+    for (double& v : r.parameter_covariance) v *= birge * birge;
     r.z_ref_m = pb.z_ref_m;
     r.iterations = of.evaluations;
     r.status = of.converged ? fit_status::converged : fit_status::not_converged;

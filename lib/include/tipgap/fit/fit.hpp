@@ -191,6 +191,10 @@ struct fit_result {
     std::vector<profile_point> profile;
     // The points the model used, as indices into the sweep's z_m/current_A, in ascending z.
     std::vector<std::size_t> used_rows;
+    // Offset model: the covariance of (I0 [A], 2κ [1/m], c [A]) as a row-major 3x3 matrix (with
+    // the same Birge scaling as the errors, signs as fitted: c with the sign of the signal), for
+    // the confidence band of the fitted current in plots; empty for the linear model.
+    std::vector<double> parameter_covariance;
     // The weighted line ln|I| = intercept + slope z of the linear model over the used points
     // (statistical covariance, no calibration); for the offset model, its linear starting fit.
     // Gives the confidence band of the fitted ln|I| in plots.

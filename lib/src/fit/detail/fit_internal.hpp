@@ -73,6 +73,7 @@ struct offset_fit {
     // With weights: χ² = Σ w r², covariance absolute (the weights are 1/σ² of a noise model).
     double ssr = 0.0;
     std::vector<double> leverage;  // diagonal of the (weighted) hat matrix, per point, in [0, 1]
+    std::vector<double> covariance;  // of (a [A], b [1/m], c [A]), row-major 3x3
     int evaluations = 0;
     bool converged = false;
     std::string message;
