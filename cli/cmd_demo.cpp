@@ -102,7 +102,7 @@ void print_summary(const demo_report& r, const demo_options& o) {
     }
     fmt::print("\n");
     for (const plan_point& p : r.plan) print_warnings(p.warnings, fmt::format("plan {:.3g} A", p.setpoint_A));
-    fmt::print("\nfits of the synthetic curves in {} (truth: the synthesiser's expected kappa):\n", o.scans_dir);
+    fmt::print("\nfits of the synthetic curves in {} (as tipgap fit --model linear; truth: the synthesiser's expected kappa, the weighted line of the noise-free curve):\n", o.scans_dir);
     fmt::print("{}", format_table(demo_curve_columns(), r.curves));
     const demo_tally t = tally(r);
     fmt::print("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "

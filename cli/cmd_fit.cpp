@@ -12,6 +12,7 @@
 #include "read_flags.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fit_summary.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/plot/plot.hpp"
@@ -21,7 +22,11 @@ namespace {
 
 struct fit_args {
     std::vector<std::string> files;
-    fit_flags flags;
+    fit_flags flags = [] {
+        fit_flags f;
+        f.model = "offset";  // honest offset and noise model by default (issue 10); map keeps linear
+        return f;
+    }();
     read_flags read;
     output_format format = output_format::table;
     std::string output;
@@ -98,8 +103,15 @@ void run(const fit_args& args) {
         plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, fit_plot_title(sources[k])),
                            f.plot_path);
     }
-    report_frame frame{.rows_key = "curves", .after_table = model_comparison(all) + notes(all), .layout = {.rule = false}};
+    // Several sweeps: their weighted mean, spread and approach-retract difference.
+    std::vector<fit_result> results;
+    for (const fitted_sweep& f : all) results.push_back(f.result);
+    const fit_summary summary = summarise_fits(results);
+    report_frame frame{.rows_key = "curves",
+                       .after_table = model_comparison(all) + notes(all) + (all.size() > 1 ? describe_summary(summary) : ""),
+                       .layout = {.rule = false}};
     frame.json.set("notes", reader_notes(curves));
+    if (all.size() > 1) frame.json.set("summary", to_record(fit_summary_columns(), summary));
     const bool with_model = !all.empty() && all.front().model.has_value();
     write_output(args.output, render(args.format, fitted_sweep_columns(with_model), all, frame));
 }

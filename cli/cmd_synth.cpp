@@ -22,7 +22,7 @@ struct synth_args {
     std::string tip_material, sample_material, tip_wf, sample_wf, temperature;
     std::string bias, gap = "0.45nm..1nm", gap_at_z0, sweeps = "retract";
     std::size_t points = 121;
-    std::string noise, baseline, saturation, drift, jump_gap;
+    std::string noise, baseline, gap_jitter, saturation, drift, jump_gap;
     double contact_conductance = 1.0;
     std::uint64_t seed = 1;
     std::string tip_label, sample_label;
@@ -61,6 +61,7 @@ synth_options synth_opts(const synth_args& a) {
     o.points = a.points;
     if (!a.noise.empty()) o.current_noise_A = flag_quantity(a.noise, dimension::current, "--noise");
     if (!a.baseline.empty()) o.baseline_A = flag_quantity(a.baseline, dimension::current, "--baseline");
+    if (!a.gap_jitter.empty()) o.gap_jitter_m = flag_quantity(a.gap_jitter, dimension::length, "--gap-jitter");
     if (!a.saturation.empty()) o.saturation_A = flag_quantity(a.saturation, dimension::current, "--saturation");
     if (!a.drift.empty()) o.drift_m = flag_quantity(a.drift, dimension::length, "--drift");
     if (!a.jump_gap.empty()) o.jump_gap_m = flag_quantity(a.jump_gap, dimension::length, "--jump-gap");
@@ -155,6 +156,8 @@ command synth_command() {
         {"--sweeps", "retract, approach or approach_retract (default retract)", &a->sweeps, "KIND"},
         {"--noise", "Standard deviation of the white current noise, e.g. 1pA (default 0)", &a->noise, "CURRENT"},
         {"--baseline", "Additive current offset of the noise floor, e.g. 0.5pA (default 0)", &a->baseline, "CURRENT"},
+        {"--gap-jitter", "Gaussian jitter of the gap at each point, e.g. 2pm: noise proportional to the current (default 0)",
+         &a->gap_jitter, "LENGTH"},
         {"--saturation", "Amplifier clip level, e.g. 3nA (default: none)", &a->saturation, "CURRENT"},
         {"--drift", "Piezo drift over the whole file (gap error linear in time), e.g. 0.02nm", &a->drift, "LENGTH"},
         {"--jump-gap", "Jump to contact below this true gap, e.g. 0.3nm (default: none)", &a->jump_gap, "LENGTH"},

@@ -42,8 +42,10 @@ std::vector<flag> fit_flag_list(fit_flags& f, bool with_window) {
         {"--saturation", "Amplifier saturation, e.g. 10nA (default: detected as a flat top)", &f.saturation, "CURRENT"},
         {"--current-noise", "Standard deviation of the current noise, e.g. 1pA, for the weights (default: estimated)",
          &f.current_noise, "CURRENT"},
-        {"--model", "linear: weighted fit of ln|I|; offset: I0 exp(-2 kappa z) + c", &f.model, "linear|offset", false,
-         std::nullopt, "linear"},
+        {"--model",
+         "offset: I0 exp(-2 kappa z) + c over every point, weighted by the noise model sigma^2 = sigma_I^2 + (eps I)^2 "
+         "estimated with the fit; linear: weighted fit of ln|I| above the noise floor (faster, no offset)",
+         &f.model, "offset|linear", false, std::nullopt, f.model},
     };
     if (with_window) {
         out.push_back({"--window",

@@ -11,7 +11,7 @@ namespace tipgap::cli {
 
 struct fit_flags {
     std::string noise_floor, saturation, current_noise, window, contact_distance;
-    std::string model = "linear";
+    std::string model = "linear";  // the default of map; fit starts from "offset"
     double calibration_uncertainty = 0.0;
     double confidence = 0.95;
 };

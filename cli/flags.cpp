@@ -47,6 +47,7 @@ constexpr flag_name flag_names[] = {
     {"synth", "gap_at_z0_m", "--gap-at-z0"},
     {"synth", "current_noise_A", "--noise"},
     {"synth", "baseline_A", "--baseline"},
+    {"synth", "gap_jitter_m", "--gap-jitter"},
     {"synth", "drift_m", "--drift"},
     {"synth", "jump_gap_m", "--jump-gap"},
     {"synth", "contact_conductance_G0", "--contact-conductance"},

@@ -51,6 +51,15 @@ void fit_default(benchmark::State& state) {
 }
 BENCHMARK(fit_default)->Arg(200)->Arg(2000);
 
+// The linear model (map's default), for the ratio to the default offset model in one run.
+void fit_linear(benchmark::State& state) {
+    const auto curve = tipgap::parse_curve_csv(make_text(static_cast<int>(state.range(0))), "bench.csv");
+    tipgap::fit_options o;
+    o.model = tipgap::fit_model::linear;
+    for (auto _ : state) benchmark::DoNotOptimize(tipgap::fit_curve(curve, o));
+}
+BENCHMARK(fit_linear)->Arg(200)->Arg(2000);
+
 }  // namespace
 
 BENCHMARK_MAIN();

@@ -1,12 +1,15 @@
 #!/usr/bin/python3
-"""Cross-check of `tipgap fit --model offset` against SciPy (scipy.optimize.curve_fit, Debian
-python3-scipy) as the reference library.
+"""Cross-check of `tipgap fit` (default model: offset, weighted by its noise model) against SciPy
+(scipy.optimize.curve_fit, Debian python3-scipy) as the reference library.
 
 Synthetic curves I = A exp(-2 kappa z) + c + white noise are generated here with a seeded NumPy
 generator, written as CSV files, fitted by tipgap and by curve_fit with the same model
-I = a exp(-b (z - z_ref)) + c (z_ref as reported by tipgap), equal weights and
-absolute_sigma=False. Both must agree on the parameters to 1e-6 relative and on their standard
-errors to 1e-3 relative.
+I = a exp(-b (z - z_ref)) + c (z_ref as reported by tipgap) and the weights of tipgap's reported
+noise model, sigma_i^2 = sigma_I^2 + (eps mu_i)^2 with mu_i tipgap's fitted exponential (the fit is
+a fixed point of that reweighting), absolute_sigma=True, the errors scaled by sqrt(chi2/dof) when
+above 1. Both must agree on the parameters to 1e-6 relative, on their standard errors to 1e-3
+relative and on chi2/dof to 1e-3. The noise model's estimate itself is tested by coverage in
+tests/fit/coverage_test.cpp.
 
 Usage: fit_scipy_check.py <path to tipgap>
 """
@@ -58,7 +61,7 @@ def main():
                     f.write(f"{zz!r},{ii!r}\n")
             paths.append(path)
             data.append((z, i, kappa, amp, offset))
-        out = subprocess.run([exe, "fit", *paths, "--model", "offset", "--format", "json"],
+        out = subprocess.run([exe, "fit", *paths, "--format", "json"],
                              check=True, capture_output=True, text=True).stdout
         curves = json.loads(out)["curves"]
         assert len(curves) == len(CASES), f"expected {len(CASES)} results, got {len(curves)}"
@@ -75,9 +78,12 @@ def main():
             assert r["points_used"] == len(z), f"curve{k}: tipgap used {r['points_used']} of {len(z)} points"
             # Start away from both the truth and tipgap's answer, so that SciPy finds the optimum itself.
             p0 = [amp * np.exp(-2 * kappa * z_ref) * 0.7, 2 * kappa * 1.2, 0.0]
-            popt, pcov = curve_fit(lambda zz, a, b, c: model(zz, a, b, c, z_ref), z, i, p0=p0,
-                                   absolute_sigma=False, ftol=1e-14, xtol=1e-14, gtol=0.0, maxfev=20000)
-            perr = np.sqrt(np.diag(pcov))
+            mu = r["prefactor_A"] * 1e12 * np.exp(-2.0 * r["decay_constant_per_nm"] * (z - z_ref))
+            sig = np.sqrt((r["current_noise_A"] * 1e12) ** 2 + (r["relative_noise"] * mu) ** 2)
+            popt, pcov = curve_fit(lambda zz, a, b, c: model(zz, a, b, c, z_ref), z, i, p0=p0, sigma=sig,
+                                   absolute_sigma=True, ftol=1e-14, xtol=1e-14, gtol=0.0, maxfev=20000)
+            chi2 = np.sum(((i - model(z, *popt, z_ref)) / sig) ** 2) / (len(z) - 3)
+            perr = np.sqrt(np.diag(pcov)) * np.sqrt(max(1.0, chi2))
             print(f"curve{k}: kappa {kappa}/nm, c {offset} pA")
             compare("decay_constant_per_nm", r["decay_constant_per_nm"], popt[1] / 2, PARAM_RTOL)
             compare("prefactor_A", r["prefactor_A"], popt[0] * 1e-12, PARAM_RTOL)
@@ -85,6 +91,7 @@ def main():
             compare("decay_constant_stderr", r["decay_constant_stderr_per_nm"], perr[1] / 2, STDERR_RTOL)
             compare("prefactor_stderr_A", r["prefactor_stderr_A"], perr[0] * 1e-12, STDERR_RTOL)
             compare("offset_stderr_A", r["offset_stderr_A"], perr[2] * 1e-12, STDERR_RTOL)
+            compare("reduced_chi_square", r["reduced_chi_square"], chi2, STDERR_RTOL)
     print("FAILED" if failures else "all agree")
     return 1 if failures else 0
 

@@ -75,12 +75,20 @@ TEST(fit_plot, bands_are_present_wide_and_grey_around_the_fit) {
             EXPECT_GT(wide.y_high[k], narrow.y_high[k]);
         }
     }
-    // On the residual panel the band that holds 95 % of the points spans at least the RMS residual
-    // on each side (t > 1), in decades.
+    // On the residual panel the band that holds 95 % of the points spans at least the noise model's
+    // σ/I on each side (t > 1), in decades, at the closest point: σ² = σ_I² + (ε μ)².
     const auto& mid = std::get<plot::xy_panel>(fig.panels.at(1));
-    const double rms_decades = f.fit.residual_rms_ln / std::log(10.0);
-    EXPECT_GT(mid.bands[0].y_high[0], rms_decades);
-    EXPECT_LT(mid.bands[0].y_low[0], -rms_decades);
+    const double mu = f.fit.prefactor_A, eps = f.fit.relative_noise;
+    const double sigma_decades = std::sqrt(std::pow(f.fit.current_noise_A, 2) + std::pow(eps * mu, 2)) /
+                                 (mu + f.fit.offset_A) / std::log(10.0);
+    EXPECT_GT(mid.bands[0].y_high[0], sigma_decades);
+    EXPECT_LT(mid.bands[0].y_low[0], -sigma_decades);
+    // The linear model's bands: the same two, around its line.
+    const fitted lin{f.curve, fit_curve(f.curve, fit_options{.model = fit_model::linear}).at(0)};
+    const plot::figure lf = make_fit_figure(lin.curve.sweeps.at(0), lin.fit, nullptr, "t");
+    EXPECT_EQ(std::get<plot::xy_panel>(lf.panels.at(0)).bands.size(), 2u);
+    const double rms_decades = lin.fit.residual_rms_ln / std::log(10.0);
+    EXPECT_GT(std::get<plot::xy_panel>(lf.panels.at(1)).bands[0].y_high[0], rms_decades);
 }
 
 TEST(fit_plot, several_sweeps_are_named_after_their_input_stems) {

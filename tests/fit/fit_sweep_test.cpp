@@ -110,6 +110,9 @@ TEST(fit, calibration_uncertainty_adds_in_quadrature_and_t_quantile) {
     s.points = 12;
     s.z_last_m = 0.22 * nm;
     fit_options o;
+    // The linear model (the calibration term is added by the same code for both models; the
+    // linear model's 2 parameters give the 10 degrees of freedom of the reference quantile).
+    o.model = fit_model::linear;
     o.noise_floor_A = 1e-15;  // use all 12 points: 10 degrees of freedom
     const curve_sweep sw = make_sweep(s, 7);
     const fit_result plain = fit_sweep(sw, no_bias, o);
@@ -169,12 +172,22 @@ TEST(fit, noise_floor_respected_by_default) {
     const double kappa_all = -0.5 * all.slope;
     EXPECT_LT(kappa_all, 0.5 * s.kappa_per_m) << "an unweighted fit of every point flattens towards the floor";
 
+    // The linear model needs the floor: without it, the weighted fit of every point is biased.
     fit_options everything;
+    everything.model = fit_model::linear;
     everything.noise_floor_A = 1e-18;  // effectively no floor: weighted fit of every point
     const fit_result biased = fit_sweep(sw, no_bias, everything);
     EXPECT_LT(biased.decay_constant_per_m, s.kappa_per_m - 3.0 * biased.decay_constant_stderr_per_m);
 
-    const fit_result r = fit_sweep(sw, no_bias, fit_options{});
+    // The default offset model fits every point with the noise model (the floor only chooses its
+    // starting line).
+    const fit_result offset = fit_sweep(sw, no_bias, fit_options{});
+    EXPECT_EQ(offset.points_used, 121u);
+    EXPECT_LT(std::abs(offset.decay_constant_per_m - s.kappa_per_m), 2.0 * offset.decay_constant_stderr_per_m);
+
+    fit_options linear;
+    linear.model = fit_model::linear;
+    const fit_result r = fit_sweep(sw, no_bias, linear);
     EXPECT_TRUE(r.noise_floor_estimated);
     EXPECT_GT(r.points_below_floor, 60u);
     EXPECT_LT(std::abs(r.decay_constant_per_m - s.kappa_per_m), 2.0 * r.decay_constant_stderr_per_m);
@@ -311,6 +324,9 @@ TEST(fit, approach_and_retract_fitted_separately) {
 TEST(fit, local_profile_is_flat_for_a_pure_exponential) {
     const synthetic s;
     fit_options o;
+    // The profile runs over the linear selection (the points above the floor) for either model;
+    // with the linear model that is points_used.
+    o.model = fit_model::linear;
     o.window_points = 20;
     const fit_result r = fit_sweep(make_sweep(s, 77), no_bias, o);
     ASSERT_EQ(r.profile.size(), r.points_used - 20 + 1);

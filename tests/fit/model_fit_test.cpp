@@ -40,7 +40,7 @@ TEST(model_fit, recovers_work_function_and_gap_offset_from_noise_free_model_curv
     o.points = 61;
     const synth_curve s = synthesise_curve(truth, o);
     const curve_sweep sweep = as_sweep(s, 0, s.samples.size());
-    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{});
+    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{.model = fit_model::linear});
     const model_fit_result m = fit_model_to_sweep(c, sweep, lin, o.bias_V);
     std::printf("model fit: W %.6f eV (true 4.6), offset %.6f nm (true 0.55), a %.2e, %d iterations, %d evaluations\n",
                 m.mean_work_function_J / eV_, m.gap_offset_m / nm_, m.ln_prefactor, m.iterations, m.model_evaluations);
@@ -63,7 +63,7 @@ TEST(model_fit, needs_a_bias) {
     synth_options o;
     const synth_curve s = synthesise_curve(c, o);
     const curve_sweep sweep = as_sweep(s, 0, s.samples.size());
-    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{});
+    const fit_result lin = fit_sweep(sweep, o.bias_V, fit_options{.model = fit_model::linear});
     try {
         fit_model_to_sweep(c, sweep, lin, std::nan(""), {}, location{"x.csv", 0, 0, ""});
         FAIL() << "no exception";

@@ -69,6 +69,7 @@ TEST(grid_fit, fast_fit_agrees_with_fit_sweep_on_sample_pixels) {
     std::mt19937_64 rng(5);
     fit_workspace ws;
     fit_options o;
+    o.model = fit_model::linear;  // the per-pixel fit is the linear model's
     o.calibration_uncertainty = 0.02;
     for (int k = 0; k < 40; ++k) {
         const double phi = 2.5 + 0.05 * k;

@@ -20,7 +20,11 @@ def test_fit_interval_covers_the_synthetic_truth():
     for seed in range(1, SEEDS + 1):
         s = tipgap.synth_curve(noise_A=2e-12, seed=seed)
         truth = s["truth"]["sweeps"][0]["decay_constant_expected_per_nm"]
-        f = tipgap.fit(s["z_nm"], s["current_A"], s["bias_V"], confidence=LEVEL, window_points=8)
+        # The truth is the I^2-weighted line of ln|I| of the noise-free curve, the linear model's
+        # estimand; the synthesiser's WKB curves are not straight in ln|I|, so the default offset
+        # model (other weights) estimates a slightly different kappa and flags the curvature. Its
+        # coverage on exponential curves is tested in tests/fit/coverage_test.cpp.
+        f = tipgap.fit(s["z_nm"], s["current_A"], s["bias_V"], model="linear", confidence=LEVEL, window_points=8)
         held += f["decay_constant_ci_low_per_nm"] <= truth <= f["decay_constant_ci_high_per_nm"]
     assert held / SEEDS >= LEVEL - COVERAGE_TOLERANCE, "%d of %d intervals hold the truth" % (held, SEEDS)
 

@@ -83,7 +83,7 @@ def test_map_shapes_and_shared_z():
     numpy.testing.assert_array_equal(shared["x_nm"], [0, 1, 2])
     numpy.testing.assert_array_equal(shared["y_nm"], [0, 1])
     # Every pixel holds the same curve: one fit, the same everywhere, and that of tipgap.fit.
-    one = tipgap.fit(s["z_nm"], s["current_A"], 0.1, window_points=8)
+    one = tipgap.fit(s["z_nm"], s["current_A"], 0.1, model="linear", window_points=8)  # map's default model
     assert numpy.all(shared["apparent_barrier_eV"] == shared["apparent_barrier_eV"][0, 0])
     assert abs(shared["apparent_barrier_eV"][0, 0] - one["apparent_barrier_eV"]) <= 1e-12 * one["apparent_barrier_eV"]
 

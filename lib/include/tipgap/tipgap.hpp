@@ -43,6 +43,7 @@
 
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fit_summary.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/fit/model_fit.hpp"
 

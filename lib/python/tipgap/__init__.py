@@ -181,7 +181,7 @@ def _fit_options(model, noise_floor_A, saturation_A, current_noise_A, calibratio
     return {k: v for k, v in options.items() if v is not None}
 
 
-def fit(z_nm, current_A, bias_V=None, *, model="linear", noise_floor_A=None, saturation_A=None,
+def fit(z_nm, current_A, bias_V=None, *, model="offset", noise_floor_A=None, saturation_A=None,
         current_noise_A=None, window_points=None, window_nm=None, calibration_uncertainty=0.0, confidence=0.95,
         contact_distance_nm=None, config=None, name="<arrays>"):
     """Decay constant and apparent barrier height of one measured I(z) curve, as ``tipgap fit``.
@@ -191,7 +191,9 @@ def fit(z_nm, current_A, bias_V=None, *, model="linear", noise_floor_A=None, sat
     current_A   current (A), signed as measured; 1-D, same length, finite.
     bias_V      sample bias (V), or None when unknown (then no contact conductance and no model
                 comparison).
-    model       "linear": weighted fit of ln|I|; "offset": I0 exp(-2 kappa z) + c.
+    model       "offset" (default): I0 exp(-2 kappa z) + c over every point, weighted by the noise
+                model sigma^2 = sigma_I^2 + (eps I)^2 estimated with the fit; "linear": weighted fit
+                of ln|I| above the noise floor (faster, no offset; the default of map).
     noise_floor_A        current below which points are noise (A), >= 0; None: estimated from the
                          far tail.
     saturation_A         amplifier saturation (A), >= 0, above the noise floor; None: detected.

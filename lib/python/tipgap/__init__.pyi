@@ -79,7 +79,7 @@ def fit(
     current_A: ArrayLike,
     bias_V: float | None = None,
     *,
-    model: Literal["linear", "offset"] = "linear",
+    model: Literal["linear", "offset"] = "offset",
     noise_floor_A: float | None = None,
     saturation_A: float | None = None,
     current_noise_A: float | None = None,

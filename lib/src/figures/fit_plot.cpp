@@ -39,7 +39,29 @@ double signal_sign(const curve_sweep& sweep, const fit_result& fit) {
     return sign_sum < 0.0 ? -1.0 : 1.0;
 }
 
-// Bands of the linear model (the offset model draws its curve only). The confidence band of the
+// Bands of the offset model at z, in ln|I|: the fitted current's variance gᵀCg from the parameter
+// covariance C of (I0, 2κ, c) with g = ∂I/∂(I0, 2κ, c) (first-order propagation), over I²; the
+// band of the points adds the noise model's variance σ_I² + (ε μ)² over I².
+void offset_bands(const fit_result& fit, double sign, double z, fitted_curve& c) {
+    const std::vector<double>& cv = fit.parameter_covariance;
+    const double x = z - fit.z_ref_m;
+    const double e = std::exp(-2.0 * fit.decay_constant_per_m * x);
+    const double mu = fit.prefactor_A * e, i = mu + sign * fit.offset_A;
+    if (cv.size() != 9 || !(i > 0.0)) {
+        c.confidence_half.push_back(NAN);
+        c.prediction_half.push_back(NAN);
+        return;
+    }
+    const double g[3] = {e, -fit.prefactor_A * x * e, 1.0};
+    double var = 0.0;
+    for (int a = 0; a < 3; ++a)
+        for (int b = 0; b < 3; ++b) var += g[a] * cv[static_cast<std::size_t>(3 * a + b)] * g[b];
+    const double noise = fit.current_noise_A * fit.current_noise_A + fit.relative_noise * fit.relative_noise * mu * mu;
+    c.confidence_half.push_back(fit.t_quantile * std::sqrt(std::max(var, 0.0)) / i);
+    c.prediction_half.push_back(fit.t_quantile * std::sqrt(std::max(var, 0.0) + noise) / i);
+}
+
+// Bands of the linear model. The confidence band of the
 // mean is t·sqrt(var(a + b z)) from the line's covariance; the band expected to hold 95 % of the
 // points adds the scatter of the points about the line, taken as the RMS residual in ln|I| (the
 // usual prediction interval of a straight-line fit, e.g. Draper & Smith, Applied Regression
@@ -57,7 +79,10 @@ fitted_curve fitted_with_bands(const curve_sweep& sweep, const fit_result& fit) 
         const double z = z_lo + (z_hi - z_lo) * static_cast<double>(k) / (band_points - 1);
         c.z_m.push_back(z);
         c.ln_fit.push_back(fitted_ln(fit, sign, z));
-        if (fit.model != fit_model::linear) continue;
+        if (fit.model != fit_model::linear) {
+            offset_bands(fit, sign, z, c);
+            continue;
+        }
         const double var = fit.line.intercept_stderr * fit.line.intercept_stderr +
                            z * z * fit.line.slope_stderr * fit.line.slope_stderr + 2.0 * z * fit.line.covariance;
         c.confidence_half.push_back(fit.t_quantile * std::sqrt(std::max(var, 0.0)));
@@ -72,6 +97,9 @@ std::vector<plot::band> bands_about(const fitted_curve& c, const std::vector<dou
     plot::band wide{{}, {}, {}, fmt::format("{:.0f} % of points", 100.0 * level), 1, plot::band_fill::grey};
     plot::band narrow{{}, {}, {}, fmt::format("{:.0f} % confidence of the fit", 100.0 * level), 1, plot::band_fill::tint};
     for (std::size_t k = 0; k < c.z_m.size(); ++k) {
+        // Where the fitted current is not positive (an offset below zero, far out) there is no
+        // ln|I| and no band.
+        if (!std::isfinite(centre[k]) || !std::isfinite(c.prediction_half[k]) || !std::isfinite(c.confidence_half[k])) continue;
         const double x = c.z_m[k] * per_nm;
         wide.x.push_back(x);
         narrow.x.push_back(x);
@@ -80,6 +108,7 @@ std::vector<plot::band> bands_about(const fitted_curve& c, const std::vector<dou
         narrow.y_low.push_back(centre[k] - c.confidence_half[k] / ln10);
         narrow.y_high.push_back(centre[k] + c.confidence_half[k] / ln10);
     }
+    if (wide.x.empty()) return {};
     return {wide, narrow};
 }
 

@@ -42,16 +42,18 @@ const std::vector<column<profile_point>>& profile_columns() {
 const std::vector<column<model_fit_result>>& model_fit_columns() {
     using m = model_fit_result;
     constexpr table_number d3 = fixed(3);
+    // Uncertainties to 2 significant digits: a fixed 3 decimals printed "0.000" (issue 10).
+    constexpr table_number s2 = {number_style::significant, 2};
     static const std::vector<column<m>> columns = {
         {"status", "", [](const m& x) { return to_string(x.status); }},
         {"mean_work_function_eV", "", [](const m& x) { return x.mean_work_function_J; }, to_eV, d3},
-        {"mean_work_function_stderr_eV", "", [](const m& x) { return x.mean_work_function_stderr_J; }, to_eV, d3},
+        {"mean_work_function_stderr_eV", "", [](const m& x) { return x.mean_work_function_stderr_J; }, to_eV, s2},
         {"tip_work_function_eV", "", [](const m& x) { return x.tip_work_function_J; }, to_eV, d3},
         {"sample_work_function_eV", "", [](const m& x) { return x.sample_work_function_J; }, to_eV, d3},
         {"gap_offset_nm", "", [](const m& x) { return x.gap_offset_m; }, to_nm, d3},
-        {"gap_offset_stderr_nm", "", [](const m& x) { return x.gap_offset_stderr_m; }, to_nm, d3},
+        {"gap_offset_stderr_nm", "", [](const m& x) { return x.gap_offset_stderr_m; }, to_nm, s2},
         {"ln_prefactor", "", [](const m& x) { return x.ln_prefactor; }, {}, d3},
-        {"ln_prefactor_stderr", "", [](const m& x) { return x.ln_prefactor_stderr; }, {}, d3},
+        {"ln_prefactor_stderr", "", [](const m& x) { return x.ln_prefactor_stderr; }, {}, s2},
         {"correlation_work_function_gap", "", [](const m& x) { return x.correlation_work_function_gap; }, {}, d3},
         {"gap_min_nm", "", [](const m& x) { return x.gap_min_m; }, to_nm, d3},
         {"gap_max_nm", "", [](const m& x) { return x.gap_max_m; }, to_nm, d3},
@@ -100,7 +102,13 @@ std::vector<column<f>> slope_columns() {
         {"z_ref_nm", "", [](const f& x) { return x.result.z_ref_m; }, to_nm, {}, in_json},
         {"offset_A", "", [](const f& x) { return x.result.offset_A; }, {}, {}, in_data},
         {"offset_stderr_A", "", [](const f& x) { return x.result.offset_stderr_A; }, {}, {}, in_data},
+        // The linear model estimates no offset: "-" in the table.
+        {"offset_A", "offset [pA]", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 11},
+        {"offset_stderr_A", "+-", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_stderr_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 6},
         {"r_squared", "R^2", [](const f& x) { return x.result.r_squared; }, {}, fixed(5), everywhere, nullptr, "", 8},
+        {"reduced_chi_square", "chi2/dof", [](const f& x) { return x.result.reduced_chi_square; }, {}, fixed(2), everywhere, nullptr, "", 9},
+        {"relative_noise", "", [](const f& x) { return x.result.relative_noise; }, {}, {}, in_data},
+        {"curvature_p_value", "", [](const f& x) { return x.result.curvature_p_value; }, {}, {}, in_data},
         {"residual_rms_ln", "", [](const f& x) { return x.result.residual_rms_ln; }, {}, {}, in_data},
         {"residual_rms_A", "", [](const f& x) { return x.result.residual_rms_A; }, {}, {}, in_data},
     };

@@ -170,64 +170,6 @@ void throw_unless_fitted(detail::linear_status status, const fit_workspace& ws, 
     }
 }
 
-// The offset model over every usable point (outside contact, below saturation, zero current
-// included), started from the linear line.
-void record_offset_fit(fit_result& r, const fit_workspace& ws, const detail::point_selection& sel, const line_fit& line,
-                       const fit_options& opt, const location& where) {
-    const detail::sorted_sweep& sw = ws.sweep;
-    std::vector<double> zz, yy;
-    double sign_sum = 0.0;
-    r.used_rows.clear();
-    for (std::size_t i = 0; i < sw.z.size(); ++i) {
-        if (sel.usable_by_offset(i, sw.abs_current[i])) {
-            r.used_rows.push_back(sw.order[i]);
-            zz.push_back(sw.z[i]);
-            yy.push_back(sw.current[i]);
-            sign_sum += sw.current[i];
-        }
-    }
-    if (zz.size() < 4) {
-        throw_input(where, fmt::format("only {} points lie below saturation and outside contact; the offset "
-                                       "model needs at least 4",
-                                       zz.size()));
-    }
-    // Fit the current with the sign of the signal so that a is positive.
-    const double s = sign_sum < 0.0 ? -1.0 : 1.0;
-    for (double& v : yy) v *= s;
-    const double z_ref = zz.front();
-    const double a0 = std::exp(line.intercept + line.slope * z_ref);
-    const double c0 = sel.noise.floor_reached ? s * sel.noise.tail_offset_A : 0.0;
-    const detail::offset_fit of = detail::fit_offset_model(zz, yy, z_ref, a0, -line.slope, c0, opt.max_evaluations);
-    r.z_ref_m = z_ref;
-    r.iterations = of.evaluations;
-    r.status = of.converged ? fit_status::converged : fit_status::not_converged;
-    r.message = of.message;
-    if (!of.converged) r.warnings.push_back("the offset model did not converge: " + of.message);
-    r.points_used = zz.size();
-    r.prefactor_A = of.amplitude_A;
-    r.prefactor_stderr_A = of.amplitude_stderr_A;
-    r.offset_A = s * of.offset_A;
-    r.offset_stderr_A = of.offset_stderr_A;
-    double mean = 0.0;
-    for (double v : yy) mean += v;
-    mean /= static_cast<double>(yy.size());
-    double sst = 0.0, ss_ln = 0.0;
-    std::size_t n_ln = 0;
-    for (std::size_t k = 0; k < yy.size(); ++k) {
-        sst += (yy[k] - mean) * (yy[k] - mean);
-        const double m = of.amplitude_A * std::exp(-of.rate_per_m * (zz[k] - z_ref)) + of.offset_A;
-        if (yy[k] > 0.0 && m > 0.0) {
-            ss_ln += std::pow(std::log(yy[k]) - std::log(m), 2);
-            ++n_ln;
-        }
-    }
-    r.r_squared = sst > 0.0 ? 1.0 - of.ssr_A2 / sst : 1.0;
-    r.residual_rms_A = std::sqrt(of.ssr_A2 / static_cast<double>(yy.size()));
-    r.residual_rms_ln = n_ln > 0 ? std::sqrt(ss_ln / static_cast<double>(n_ln)) : 0.0;
-    const double dof = static_cast<double>(zz.size()) - 3.0;
-    detail::fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, detail::t_quantile(dof, r.confidence_level));
-}
-
 // Warnings a careful reader wants next to the numbers: saturation, contact, a short current
 // range, a decay constant of the wrong sign.
 void add_warnings(fit_result& r, const fit_options& opt) {
@@ -252,6 +194,14 @@ void add_warnings(fit_result& r, const fit_options& opt) {
         r.warnings.push_back(
             fmt::format("the used points span only {:.2g} decades of current; the decay constant is poorly constrained",
                         r.current_decades_used));
+    }
+    // κ = 2-20 /nm (φ_ap about 0.15-15 eV) spans clean metal junctions in vacuum down to
+    // adsorbate-covered or wet ones (common practice, no source); outside it, suspect the data.
+    const double kappa_nm = r.decay_constant_per_m * 1e-9;
+    if (kappa_nm > 0.0 && (kappa_nm < 2.0 || kappa_nm > 20.0)) {
+        r.warnings.push_back(fmt::format("decay constant {:.3g} /nm (phi_ap {:.3g} eV) is outside the usual 2-20 /nm: check "
+                                         "the z calibration and units, the offset and the noise",
+                                         kappa_nm, r.apparent_barrier_J / si::electron_volt));
     }
     if (r.decay_constant_per_m <= 0.0) {
         r.warnings.push_back("|I| does not decrease with z (decay constant <= 0): check that z increases as the tip "
@@ -296,9 +246,21 @@ fit_result fit_sweep(const curve_sweep& sweep, double bias_V, const fit_options&
                                              r.points_below_floor, n, detail::format_current(r.noise_floor_A)));
         }
     } else {
-        // The offset model uses every point outside contact and saturation.
-        record_offset_fit(r, ws, selection, linear.line, opt, where);
-        r.current_decades_used = detail::current_decades(ws);
+        // The offset model uses every point outside contact and saturation. On a sweep that does
+        // not determine its three parameters (a few scattered points: the covariance is singular)
+        // the linear model's result is reported instead, with a warning.
+        fit_result trial = r;
+        detail::record_offset_fit(trial, ws, selection, linear.line, opt, where);
+        if (std::isfinite(trial.decay_constant_per_m) && std::isfinite(trial.decay_constant_stderr_per_m) &&
+            std::isfinite(trial.offset_stderr_A)) {
+            r = std::move(trial);
+            r.current_decades_used = detail::current_decades(ws);
+        } else {
+            detail::record_linear_fit(r, ws, linear.line);
+            r.model = fit_model::linear;
+            r.warnings.push_back("the offset model is undetermined on this sweep (singular covariance): the linear "
+                                 "model's result is reported");
+        }
     }
     add_warnings(r, opt);
     r.profile = local_profile(ws, opt, r.contact, r.warnings);

@@ -109,9 +109,14 @@ std::string table_text(const cell& c, const table_number& n, const std::string& 
             using V = std::decay_t<decltype(v)>;
             if constexpr (std::is_same_v<V, double>) {
                 const bool fix = n.style == number_style::fixed;
-                std::string s = fix ? fixed_text(v, n.digits) : significant(v, n.digits);
-                // The spread to 2 significant digits, or to the value's decimals.
-                if (!std::isnan(spread)) s += " ± " + (fix ? fixed_text(spread, n.digits) : significant(spread, 2));
+                // The spread to 2 significant digits, or to the value's decimals; never "± 0.000":
+                // a spread that would round to zero gets 2 significant digits and the value as many
+                // decimals.
+                int decimals = n.digits;
+                if (fix && !std::isnan(spread) && spread > 0.0 && spread < 0.5 * std::pow(10.0, -n.digits))
+                    decimals = std::min(15, 1 - static_cast<int>(std::floor(std::log10(spread))));
+                std::string s = fix ? fixed_text(v, decimals) : significant(v, n.digits);
+                if (!std::isnan(spread)) s += " ± " + (fix ? fixed_text(spread, decimals) : significant(spread, 2));
                 return s;
             } else if constexpr (std::is_same_v<V, std::int64_t> || std::is_same_v<V, std::uint64_t>) {
                 return fmt::format("{}", v);

@@ -23,6 +23,7 @@ void synth_options::validate(const model_options& model) const {
     if (!std::isnan(gap_at_z0_m) && !std::isfinite(gap_at_z0_m)) bad("gap_at_z0_m", "must be finite");
     if (!(current_noise_A >= 0.0 && std::isfinite(current_noise_A))) bad("current_noise_A", "must be >= 0");
     if (!std::isfinite(baseline_A)) bad("baseline_A", "must be finite");
+    if (!(gap_jitter_m >= 0.0 && gap_jitter_m <= 0.1e-9)) bad("gap_jitter_m", "must be in [0, 0.1 nm]");
     if (!(saturation_A >= 0.0 && std::isfinite(saturation_A))) bad("saturation_A", "must be >= 0 (0 = no clipping)");
     if (!(std::abs(drift_m) < 1e-9)) bad("drift_m", "must be below 1 nm in magnitude");
     if (!(jump_gap_m >= 0.0 && jump_gap_m < gap_max_m)) bad("jump_gap_m", "must be >= 0 and below gap_max_m");
@@ -126,6 +127,12 @@ synth_curve synthesise_curve(const config& c, const synth_options& o) {
             p.model_current_A = total_current(c.model, c.geometry, p.true_gap_m, o.bias_V);
             p.in_contact = o.jump_gap_m > 0.0 && p.true_gap_m < o.jump_gap_m;
             double i = p.in_contact ? plateau_A : p.model_current_A;
+            // Gap jitter draws its own deviate before the current noise, only when asked for, so
+            // files without it keep their noise sequence; the truth stays jitter-free.
+            if (o.gap_jitter_m > 0.0) {
+                const double jittered_gap = p.true_gap_m + o.gap_jitter_m * noise.next();
+                if (!p.in_contact) i = total_current(c.model, c.geometry, jittered_gap, o.bias_V);
+            }
             i += o.baseline_A + o.current_noise_A * noise.next();
             if (o.saturation_A > 0.0) i = std::clamp(i, -o.saturation_A, o.saturation_A);
             p.current_A = i;

@@ -123,6 +123,8 @@ void write_synth_curve(const synth_curve& curve, const config& c, const synth_op
     y += "instrument:\n";
     y += fmt::format("  current_noise_pA: {}\n", num(o.current_noise_A / pA));
     y += fmt::format("  baseline_pA: {}\n", num(o.baseline_A / pA));
+    // Written only when used, so that files made before the option read the same.
+    if (o.gap_jitter_m > 0.0) y += fmt::format("  gap_jitter_pm: {}\n", num(o.gap_jitter_m / 1e-12));
     y += fmt::format("  noise_floor_pA: {}\n", num(t.noise_floor_A / pA));
     y += fmt::format("  saturation_pA: {}\n", num(o.saturation_A / pA));
     y += fmt::format("  drift_nm: {}\n", num(o.drift_m / 1e-9));

@@ -40,7 +40,8 @@ line_fit fit_line(std::span<const double> x, std::span<const double> y, std::spa
 // ---------------------------------------------------------------------------------------------
 enum class fit_model {
     linear,  // weighted linear least squares of ln|I| against z
-    offset,  // nonlinear least squares I = I0 exp(-2 κ (z - z_ref)) + c (Levenberg-Marquardt)
+    offset,  // I = I0 exp(-2 κ (z - z_ref)) + c by weighted nonlinear least squares (Levenberg-
+             // Marquardt), weights from the noise model σ² = σ_I² + (ε μ)² estimated with the fit
 };
 template <>
 struct enum_names<fit_model> {
@@ -48,7 +49,9 @@ struct enum_names<fit_model> {
 };
 
 struct fit_options {
-    fit_model model = fit_model::linear;
+    // The default: the offset and the noise model are estimated with κ (honest intervals with an
+    // amplifier offset and gap jitter); linear is faster and kept for maps.
+    fit_model model = fit_model::offset;
     // Current below which a point is noise (A, >= 0; 0 = estimate from the far tail, see
     // estimate_noise). Points with |I| below it are not used by the linear model.
     double noise_floor_A = 0.0;
@@ -56,7 +59,7 @@ struct fit_options {
     // not used by either model.
     double saturation_A = 0.0;
     // Standard deviation of the current noise (A, >= 0; 0 = estimate). Sets the weights of the
-    // linear fit, σ_lnI = σ_I/|I|.
+    // linear fit, σ_lnI = σ_I/|I|, and holds σ_I of the offset model's noise model.
     double current_noise_A = 0.0;
     // Relative piezo calibration uncertainty u (dimensionless, [0, 0.5)). z_true = z (1 ± u), so κ
     // carries a relative uncertainty u and φ_ap 2u, added in quadrature to the statistical error.
@@ -133,7 +136,9 @@ struct enum_names<fit_status> {
 };
 
 struct fit_result {
-    fit_model model = fit_model::linear;
+    // The default: the offset and the noise model are estimated with κ (honest intervals with an
+    // amplifier offset and gap jitter); linear is faster and kept for maps.
+    fit_model model = fit_model::offset;
     sweep_direction direction = sweep_direction::unknown;
     fit_status status = fit_status::converged;
     std::string message;
@@ -158,8 +163,12 @@ struct fit_result {
     double r_squared = 0.0;                       // linear: weighted, of ln|I|; offset: of I
     double residual_rms_ln = 0.0;                 // RMS of ln|I| - ln|model| over the used points
     double residual_rms_A = 0.0;                  // RMS of I - model over the used points, A
-    double reduced_chi_square = 0.0;              // linear: Σ w r² / (n - 2) with w = (I_fit/σ_I)²,
-                                                  // ≈ 1 when the noise model holds; offset: 0
+    double reduced_chi_square = 0.0;              // Σ w r² / dof against the noise model, ≈ 1 when
+                                                  // it holds (linear: w = (I_fit/σ_I)² on ln|I|;
+                                                  // offset: w = 1/(σ_I² + (ε μ)²) on I)
+    double relative_noise = 0.0;                  // ε of the offset model's noise model (0 for linear)
+    double curvature_p_value = 1.0;               // offset: F test of a quadratic term in the
+                                                  // exponent (small: ln|I - c| is curved); linear: 1
     double current_decades_used = 0.0;            // log10(max |I| / min |I|) over the used points
     double degrees_of_freedom = 0.0;              // points used - parameters
     double t_quantile = 0.0;                      // Student t quantile used for the intervals
@@ -173,7 +182,7 @@ struct fit_result {
 
     double noise_floor_A = 0.0;          // threshold used, A
     bool noise_floor_estimated = false;
-    double current_noise_A = 0.0;        // σ_I used for the weights, A
+    double current_noise_A = 0.0;        // σ_I used for the weights (offset: of the noise model), A
     bool current_noise_estimated = false;
     double saturation_A = 0.0;           // saturation level used (0 = none), A
     bool saturation_detected = false;
@@ -182,6 +191,10 @@ struct fit_result {
     std::vector<profile_point> profile;
     // The points the model used, as indices into the sweep's z_m/current_A, in ascending z.
     std::vector<std::size_t> used_rows;
+    // Offset model: the covariance of (I0 [A], 2κ [1/m], c [A]) as a row-major 3x3 matrix (with
+    // the same Birge scaling as the errors, signs as fitted: c with the sign of the signal), for
+    // the confidence band of the fitted current in plots; empty for the linear model.
+    std::vector<double> parameter_covariance;
     // The weighted line ln|I| = intercept + slope z of the linear model over the used points
     // (statistical covariance, no calibration); for the offset model, its linear starting fit.
     // Gives the confidence band of the fitted ln|I| in plots.

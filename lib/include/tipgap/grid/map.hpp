@@ -41,7 +41,7 @@ struct enum_names<pixel_quality> {
 // Precedence when several codes apply: too_few_points, poor_fit, contact, saturated, ok.
 
 struct map_options {
-    fit_options fit;                       // as for tipgap fit (the profile window is not used)
+    fit_options fit{.model = fit_model::linear};  // as for tipgap fit but linear by default (speed; the profile window is not used)
     // poor_fit when the used points span fewer decades of current than this (> 0; fit_sweep warns
     // below 1 decade, common practice, no source).
     double min_current_decades = 1.0;

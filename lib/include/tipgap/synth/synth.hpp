@@ -5,7 +5,9 @@
 // Signal chain, sample k of N in the file (k counts through approach and retract sweeps):
 //   nominal gap     s_k                  from the sweep schedule, gap_min..gap_max
 //   recorded z      z_k = s_k - gap_at_z0                      (z zero arbitrary, as on a piezo)
-//   true gap        s_true = s_k + drift · k/(N-1)             (piezo drift, linear in time)
+//   true gap        s_true = s_k + drift · k/(N-1) + σ_z · m_k (piezo drift, linear in time; gap
+//                                                              jitter m_k ~ N(0, 1) from vibration
+//                                                              or feedback: noise ∝ the current)
 //   model current   I_m = total_current(config, s_true, V)     (tipgap's planar WKB model)
 //   contact         I_m = G_c · G0 · V when s_true < jump_gap  (jump to a conductance plateau)
 //   noise floor     I = I_m + baseline + σ · n_k,  n_k ~ N(0, 1) (white amplifier noise)
@@ -46,6 +48,7 @@ struct synth_options {
     synth_sweeps sweeps = synth_sweeps::retract;
     double current_noise_A = 0.0;           // σ of the white current noise (A), >= 0
     double baseline_A = 0.0;                // additive offset of the noise floor (A), signed, finite
+    double gap_jitter_m = 0.0;              // σ_z of a Gaussian jitter of the gap per point (m), [0, 0.1 nm]
     double saturation_A = 0.0;              // amplifier clip level (A), >= 0; 0 = no clipping
     double drift_m = 0.0;                   // piezo drift over the whole file (m), |drift| < 1 nm
     double jump_gap_m = 0.0;                // contact jump below this true gap (m), >= 0; 0 = none

@@ -53,19 +53,47 @@ double detect_saturation(std::span<const double> abs_current, double noise_A);
 contact_result detect_contact(std::span<const double> z_m, std::span<const double> abs_current, double floor_A,
                               double bias_V, double contact_distance_m);
 
-// Offset-model fit y = a exp(-b (z - z_ref)) + c on (z_m, sI) with equal weights, started from
-// (a0, b0, c0). Fills the model-specific fields of `r` (decay constant statistics are filled by
-// the caller from b and its standard error).
+// Offset-model fit y = a exp(-b (z - z_ref) - q (z - z_ref)²) + c on (z_m, signed current), q
+// only when `quadratic` (the curvature test), started from (a0, b0, c0, q = 0).
+struct offset_problem {
+    std::span<const double> z_m;               // m, n >= 4
+    std::span<const double> signed_current_A;  // A, the same length
+    std::span<const double> weights;           // 1/σ² (A⁻²), the same length; empty = equal weights
+    double z_ref_m = 0.0;
+    double a0_A = 0.0, b0_per_m = 0.0, c0_A = 0.0;
+    int max_evaluations = 2000;
+    bool quadratic = false;
+};
 struct offset_fit {
     double amplitude_A = 0.0, amplitude_stderr_A = 0.0;
     double rate_per_m = 0.0, rate_stderr_per_m = 0.0;  // b = 2κ
     double offset_A = 0.0, offset_stderr_A = 0.0;
-    double ssr_A2 = 0.0;
+    double curvature_per_m2 = 0.0, curvature_stderr_per_m2 = 0.0;  // q (quadratic only)
+    // Without weights: the sum of squared residuals (A²), covariance scaled by SSR/(n - p).
+    // With weights: χ² = Σ w r², covariance absolute (the weights are 1/σ² of a noise model).
+    double ssr = 0.0;
+    std::vector<double> leverage;  // diagonal of the (weighted) hat matrix, per point, in [0, 1]
+    std::vector<double> covariance;  // of (a [A], b [1/m], c [A]), row-major 3x3
     int evaluations = 0;
     bool converged = false;
     std::string message;
 };
-offset_fit fit_offset_model(std::span<const double> z_m, std::span<const double> signed_current_A, double z_ref_m,
-                            double a0_A, double b0_per_m, double c0_A, int max_evaluations);
+offset_fit fit_offset_model(const offset_problem& problem);
+
+// The noise model σ² = σ_I² + (ε μ)² of the offset fit (noise_model.cpp).
+struct noise_model {
+    double current_noise_A = 0.0;  // σ_I, A
+    double relative_noise = 0.0;   // ε, dimensionless
+    double variance(double mean_A) const {
+        return current_noise_A * current_noise_A + relative_noise * relative_noise * mean_A * mean_A;
+    }
+};
+// Maximum-likelihood estimate of (σ_I, ε) from the Gasser-Sroka-Jennen-Steinmetz pseudo-residuals
+// of the residuals r (A) of the current fit, with μ (A) the fitted exponential part, at ascending
+// z (m); the three have the same length n >= 3. fixed_current_noise_A > 0 holds σ_I at that value.
+// min_current_noise_A > 0 keeps σ_I away from 0 on noiseless data.
+noise_model estimate_noise_model(std::span<const double> z_m, std::span<const double> residual_A,
+                                 std::span<const double> mean_A, double fixed_current_noise_A,
+                                 double min_current_noise_A);
 
 }  // namespace tipgap::detail

@@ -221,15 +221,20 @@ void record_linear_fit(fit_result& r, fit_workspace& ws, const line_fit& line) {
     r.prefactor_stderr_A = r.prefactor_A * std::sqrt(std::max(var_ln, 0.0));
     r.r_squared = line.r_squared;
     r.residual_rms_ln = line.residual_rms;
-    double ss = 0.0;
+    // χ² against the noise model: σ_lnI = σ_I/I_fit, so w = (I_fit/σ_I)² (r.current_noise_A is
+    // set by point_selection::record before).
+    double ss = 0.0, chi2 = 0.0;
     for (std::size_t i : used) {
-        const double d = s.abs_current[i] - std::exp(line.intercept + line.slope * s.z[i]);
+        const double fit = std::exp(line.intercept + line.slope * s.z[i]);
+        const double d = s.abs_current[i] - fit;
+        const double dln = s.ln_abs_current[i] - std::log(fit);
         ss += d * d;
+        chi2 += dln * dln * (fit / r.current_noise_A) * (fit / r.current_noise_A);
     }
     r.residual_rms_A = std::sqrt(ss / static_cast<double>(used.size()));
     r.current_decades_used = current_decades(ws);
-    r.reduced_chi_square = line.residual_std * line.residual_std;
     const double dof = static_cast<double>(used.size()) - 2.0;
+    r.reduced_chi_square = r.current_noise_A > 0.0 ? chi2 / dof : 0.0;
     fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, dof, cached_t_quantile(ws, dof, r.confidence_level));
 }
 

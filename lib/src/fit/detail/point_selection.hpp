@@ -113,5 +113,12 @@ double cached_t_quantile(fit_workspace& ws, double dof, double level);
 // must be set.
 void record_linear_fit(fit_result& r, fit_workspace& ws, const line_fit& line);
 
+// The offset model (fit_offset_sweep.cpp): every point outside contact and below saturation,
+// weighted by the noise model re-estimated from the residuals, started from `line`; fills the
+// model's fields of `r` (κ, φ_ap, offset, noise model, χ²/dof, curvature test). Throws
+// tipgap::error (input, at `where`) with fewer than 4 usable points.
+void record_offset_fit(fit_result& r, const fit_workspace& ws, const point_selection& selection, const line_fit& line,
+                       const fit_options& options, const location& where);
+
 }  // namespace detail
 }  // namespace tipgap
