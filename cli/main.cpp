@@ -15,6 +15,9 @@
 #include "command.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
+#include "tipgap/core/interrupt.hpp"
+#include "tipgap/io/output_path.hpp"
+#include "tipgap/io/output_transaction.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -63,10 +66,35 @@ std::string command_line(const CLI::App* cmd) {
     return s;
 }
 
+// The files a run reads and writes, by option name, for the checks before any work.
+struct run_paths {
+    std::vector<std::string> inputs;
+    std::vector<run_output> outputs;
+};
+run_paths paths_of(const CLI::App* cmd) {
+    run_paths r;
+    for (const CLI::Option* opt : cmd->get_options()) {
+        const std::string n = opt->get_name();
+        const bool dir = n == "--output-dir" || (n == "--out" && cmd->get_name() == "demo");
+        for (const std::string& v : opt->results()) {
+            if (n == "files" || n == "file" || n == "grid" || n == "--config") r.inputs.push_back(v);
+            if (n == "--output" || n == "--plot" || n == "--out" || n == "--truth" || dir) r.outputs.push_back({v, dir});
+        }
+    }
+    return r;
+}
+
+// Runs a command with its outputs in one transaction: all are written or none.
 void add_command(CLI::App& app, command c) {
     CLI::App* cmd = app.add_subcommand(c.name, c.description);
     for (const flag& f : c.flags) add_flag(cmd, f);
-    cmd->callback([cmd, run = std::move(c.run)] { run(command_line(cmd)); });
+    cmd->callback([cmd, run = std::move(c.run)] {
+        run_paths p = paths_of(cmd);
+        check_run_paths(p.inputs, p.outputs);
+        output_transaction outputs(std::move(p.inputs));
+        run(command_line(cmd));
+        outputs.commit();
+    });
 }
 
 // "tipgap predict" for a failure inside `predict`, else "tipgap".
@@ -210,6 +238,7 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
+    tipgap::install_interrupt_handlers();
     for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, resonances_command, demo_command})
         add_command(app, make());
     try {

@@ -1,5 +1,7 @@
 #include "tipgap/config/config.hpp"
 
+#include "io/detail/read_capped.hpp"
+
 #include <cstdint>
 #include <filesystem>
 #include <fmt/format.h>
@@ -244,22 +246,10 @@ config parse_config(std::string_view text, const std::string& name) {
 }
 
 config load_config(const std::string& path) {
-    location w;
-    w.file = path;
-    std::error_code ec;
-    if (std::filesystem::is_directory(path, ec)) throw_input(w, "this is a directory; expected a YAML file");
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw_input(w, "cannot open the configuration file; expected a readable YAML file");
     // A configuration is a few hundred bytes. yaml-cpp builds a node tree of many times the file's
-    // size, so a file far beyond any configuration (a data file given by mistake) is refused first.
-    constexpr std::uintmax_t max_bytes = 1u << 20;
-    const std::uintmax_t size = std::filesystem::file_size(path, ec);
-    if (!ec && size > max_bytes) {
-        throw_input(w, fmt::format("the file has {} bytes; expected a configuration of at most 1 MiB", size));
-    }
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    return parse_config(ss.str(), path);
+    // size, so a file far beyond any configuration (a data file given by mistake, /dev/zero) is
+    // refused first.
+    return parse_config(detail::read_capped(path, detail::config_cap_bytes, false, "a YAML configuration"), path);
 }
 
 config default_config() { return parse_config(embedded::default_yaml, "<default>"); }

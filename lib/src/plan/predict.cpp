@@ -1,3 +1,4 @@
+#include "tipgap/core/limits.hpp"
 #include "tipgap/plan/predict.hpp"
 
 #include <cmath>
@@ -18,7 +19,7 @@ void validate_operating_point(const model_options& m, double gap, double bias, c
         w.key = gap_key;
         throw_input(w, fmt::format("gap {:g} nm is not positive; expected a gap in (0, 100] nm", gap * 1e9));
     }
-    if (gap > 100e-9) {
+    if (!at_most(gap, 100e-9)) {
         w.key = gap_key;
         throw_input(w, fmt::format("gap {:g} nm is beyond the model's range; expected a gap in (0, 100] nm",
                                    gap * 1e9));
