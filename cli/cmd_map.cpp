@@ -19,6 +19,7 @@
 #include "tipgap/figures/map_figures.hpp"
 #include "tipgap/grid/map.hpp"
 #include "tipgap/grid/map_files.hpp"
+#include "tipgap/grid/map_checks.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/plot/plot.hpp"
@@ -133,6 +134,7 @@ void run(const map_args& a) {
     bar->finish();
     print_warnings(m.grid.warnings, m.grid.path);
     print_notes(m.grid.notes, m.grid.path);
+    require_fitted_pixel(m);
     const auto t1 = std::chrono::steady_clock::now();
     write_maps(m, dir, figure);
     const auto t2 = std::chrono::steady_clock::now();

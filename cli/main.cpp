@@ -5,6 +5,7 @@
 // kind is "error" (bad input, exit 3), "usage error" (bad command line, exit 2), "no answer" (a
 // well-formed request without a solution, exit 4) or "internal error" (a bug, exit 70).
 #include <CLI/CLI.hpp>
+#include <charconv>
 #include <cstdio>
 #include <exception>
 #include <fmt/format.h>
@@ -47,6 +48,17 @@ void add_flag(CLI::App* cmd, const flag& f) {
                                            [&](output_format* p) { return add_format(cmd, f, *p); },
                                            [&](auto* p) { return cmd->add_option(f.names, *p, f.help); }},
                                 f.target);
+    // CLI11 would wrap "18446744073709551616" or "-1" into a valid-looking unsigned number.
+    if (std::holds_alternative<std::uint64_t*>(f.target))
+        o->check(CLI::Validator(
+            [](std::string& s) -> std::string {
+                std::uint64_t v = 0;
+                const auto [end, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
+                if (ec == std::errc::result_out_of_range) return quote_input(s) + " is beyond 2^64 - 1 = 18446744073709551615";
+                if (ec != std::errc() || end != s.data() + s.size()) return quote_input(s) + " is not a whole number >= 0";
+                return "";
+            },
+            "UINT"));
     if (!f.type_name.empty()) o->type_name(f.type_name);
     if (f.required) o->required();
     if (f.range) o->check(CLI::Range(f.range->first, f.range->second));

@@ -2,6 +2,7 @@
 
 #include "io/detail/read_capped.hpp"
 
+#include <algorithm>
 #include <cstdint>
 #include <filesystem>
 #include <fmt/format.h>
@@ -202,7 +203,18 @@ config parse_root(const YAML::Node& root, const std::string& name) {
 
 YAML::Node load_yaml(std::string_view text, const std::string& name) {
     try {
-        return YAML::Load(std::string(text));
+        // A second document ("---" and more keys) would be dropped silently by YAML::Load.
+        std::vector<YAML::Node> docs = YAML::LoadAll(std::string(text));
+        if (docs.size() > 1) {
+            int line = 1;
+            for (std::size_t at = text.find("\n---"); at != std::string_view::npos && line == 1; at = std::string_view::npos)
+                line = 2 + static_cast<int>(std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(at), '\n'));
+            throw_input(location{name, line, 1, ""},
+                        fmt::format("the file holds {} YAML documents; expected one configuration (remove the '---' "
+                                    "separator and merge the keys)",
+                                    docs.size()));
+        }
+        return docs.empty() ? YAML::Node() : docs.front();
     } catch (const YAML::ParserException& e) {
         location w;
         w.file = name;

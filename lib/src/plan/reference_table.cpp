@@ -57,8 +57,9 @@ std::vector<reference_row> reference_table(const config& c, const std::vector<st
         w.key = "current";
         const auto& first = *std::find_if(rows.begin(), rows.end(), [](const auto& r) { return !std::isfinite(r.gap_m); });
         throw error(error_kind::no_answer, w,
-                    fmt::format("the reference setpoint {:g} A at {:g} V cannot be reached for {}{}", current_A, bias_V,
+                    fmt::format("the reference setpoint {:g} A at {:g} V cannot be reached for {}{}{}", current_A, bias_V,
                                 fmt::join(unreachable.begin(), unreachable.begin() + std::min<std::size_t>(unreachable.size(), 4), ", "),
+                                unreachable.size() > 4 ? fmt::format(" and {} more", unreachable.size() - 4) : "",
                                 first.warnings.empty() ? "" : "; " + first.warnings.front()));
     }
     return rows;

@@ -1,0 +1,64 @@
+#!/usr/bin/env bash
+# Issue 11, classes 4, 5, 6, 7 and 8: bounded reads, any bytes in text, edge values, no NaN or inf
+# behind exit 0, and messages a user can act on. Each check names its class.
+# Env: TIPGAP (executable), TIPGAP_SOURCE_DIR (the repository).
+set -uo pipefail
+: "${TIPGAP:?}" "${TIPGAP_SOURCE_DIR:?}"
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+cd "$tmp"
+fails=0
+fail() { echo "FAIL: $*" >&2; fails=$((fails + 1)); }
+curve="$TIPGAP_SOURCE_DIR/demo_scans/01_w_au111_clean.csv"
+
+# expect CODE PATTERN -- command...: exit code, and a stderr matching PATTERN with no internal name.
+expect() {
+  local code=$1 pattern=$2
+  shift 3
+  timeout 20 "$@" > out.txt 2> err.txt
+  local rc=$?
+  [ "$rc" = "$code" ] || { fail "$*: exit $rc, expected $code; stderr: $(head -c 300 err.txt)"; return 1; }
+  [ -z "$pattern" ] || grep -qE -- "$pattern" err.txt || { fail "$*: stderr lacks /$pattern/: $(head -c 300 err.txt)"; return 1; }
+  grep -qE '_(m|A|V|J|K)\b' err.txt && { fail "$*: an internal name in: $(cat err.txt)"; return 1; }
+  return 0
+}
+# with_meta LINE: the demo curve with LINE added after its metadata.
+with_meta() { head -n 3 "$curve"; printf '%s\n' "$1"; tail -n +4 "$curve"; }
+
+# --- 4. Bounded reads: each ends within a second (timeout 5 is the hang guard)
+for args in "predict --config /dev/zero --gap 1nm --bias 0.1V" "fit /dev/zero" "resonances /dev/zero" "map /dev/zero"; do
+  start=$(date +%s%N)
+  # shellcheck disable=SC2086
+  expect 3 "at most|not a regular file" -- timeout 5 "$TIPGAP" $args
+  ms=$(( ($(date +%s%N) - start) / 1000000 ))
+  [ "$ms" -lt 1000 ] || fail "4: tipgap $args took $ms ms"
+done
+head -c 2000000 /dev/zero | tr '\0' '#' > big.yaml
+expect 3 "at most 1 MiB" -- "$TIPGAP" predict --config big.yaml --gap 1nm --bias 0.1V
+
+# --- 6. Edge values
+expect 2 "does not rise" -- "$TIPGAP" synth --gap 1nm..0.5nm --out s.csv
+expect 2 "spans .* pm; expected at least" -- "$TIPGAP" synth --gap 0.5nm..0.5001nm --out s.csv
+expect 2 "confidence" -- "$TIPGAP" fit "$curve" --confidence 1
+expect 2 "confidence" -- "$TIPGAP" fit "$curve" --confidence 0.1
+expect 2 "seed" -- "$TIPGAP" synth --seed 18446744073709551616 --out s.csv
+[ ! -e s.csv ] || fail "6: a refused synth left s.csv"
+# an inclusive limit: 100 nm against (0, 100] nm is accepted
+expect 0 "" -- "$TIPGAP" predict --gap 100nm --bias 0.1V --mc-samples 0
+
+# --- 7. No NaN or inf behind exit 0
+expect 4 "cannot be reached" -- "$TIPGAP" table --current 1e6A
+grep -qi nan out.txt && fail "7: table printed nan"
+with_meta "# bias: 1e300 V" | sed '/^# bias: 0.1 V/d' > huge_bias.csv
+expect 3 "bias.*out of range" -- "$TIPGAP" fit huge_bias.csv
+with_meta "# bias: 0.2 V" > twice.csv
+expect 3 "given twice" -- "$TIPGAP" fit twice.csv
+expect 2 "noise" -- "$TIPGAP" synth --noise 1e300A --out s.csv
+(cat "$TIPGAP_SOURCE_DIR/configs/default.yaml"; printf -- '---\ntemperature: 77 K\n') > two_docs.yaml
+expect 3 "2 YAML documents" -- "$TIPGAP" predict --config two_docs.yaml --gap 1nm --bias 0.1V
+"$TIPGAP" synth --grid 6x6 --points-per-curve 32 --noise 1e-3A --out noisy_grid.csv > /dev/null 2>&1 || fail "7: synth grid"
+expect 4 "no pixel could be fitted" -- "$TIPGAP" map noisy_grid.csv --output-dir noisy_map
+[ ! -e noisy_map ] || fail "7: a map of blanks was written"
+
+[ "$fails" = 0 ] || { echo "$fails failure(s)"; exit 1; }
+echo "hostile values: all checks passed"
