@@ -36,6 +36,21 @@ done
 head -c 2000000 /dev/zero | tr '\0' '#' > big.yaml
 expect 3 "at most 1 MiB" -- "$TIPGAP" predict --config big.yaml --gap 1nm --bias 0.1V
 
+# --- 5. Any bytes in text: JSON stays valid, labels cannot add metadata lines
+bad_name=$(printf 'bad\xff\xfename.csv')
+cp "$curve" "$bad_name"
+expect 0 "" -- "$TIPGAP" fit "$bad_name" --format json
+/usr/bin/python3 -c 'import json, sys; d = json.load(open(sys.argv[1])); assert d["invalid_utf8_replaced"] is True; assert "\ufffd" in d["curves"][0]["file"]' out.txt \
+  || fail "5: fit JSON of a non-UTF-8 file name is not valid or not flagged"
+with_meta "$(printf '# sample: Au\xff(111)')" | sed '/^# sample: Au(111)$/d' > latin1.csv
+expect 0 "" -- "$TIPGAP" fit latin1.csv --format json
+/usr/bin/python3 -c 'import json, sys; json.load(open(sys.argv[1]))' out.txt || fail "5: fit JSON with a non-UTF-8 label is not valid"
+expect 0 "" -- "$TIPGAP" synth --sample-label "$(printf 'Au\n# bias: 5 V')" --tip-label "$(printf 'W\r# seed: 9')" --out labels.csv
+[ "$(grep -c '^# bias:' labels.csv)" = 1 ] || fail "5: a label added a '# bias:' line: $(head -12 labels.csv)"
+[ "$(grep -c '^# seed:' labels.csv)" = 1 ] || fail "5: a label added a '# seed:' line"
+expect 0 "" -- "$TIPGAP" fit labels.csv
+grep -q '0.1 V' labels.csv || fail "5: the bias line is gone"
+
 # --- 6. Edge values
 expect 2 "does not rise" -- "$TIPGAP" synth --gap 1nm..0.5nm --out s.csv
 expect 2 "spans .* pm; expected at least" -- "$TIPGAP" synth --gap 0.5nm..0.5001nm --out s.csv

@@ -261,7 +261,7 @@ config load_config(const std::string& path) {
     // A configuration is a few hundred bytes. yaml-cpp builds a node tree of many times the file's
     // size, so a file far beyond any configuration (a data file given by mistake, /dev/zero) is
     // refused first.
-    return parse_config(detail::read_capped(path, detail::config_cap_bytes, false, "a YAML configuration"), path);
+    return parse_config(detail::read_capped(path, detail::config_cap_bytes, false, "a configuration"), path);
 }
 
 config default_config() { return parse_config(embedded::default_yaml, "<default>"); }
