@@ -25,13 +25,11 @@ expect() {
 # with_meta LINE: the demo curve with LINE added after its metadata.
 with_meta() { head -n 3 "$curve"; printf '%s\n' "$1"; tail -n +4 "$curve"; }
 
-# --- 4. Bounded reads: each ends within a second (timeout 5 is the hang guard)
+# --- 4. Bounded reads: each ends with a clear error (timeout 10 only guards against a hang; the
+# time itself is not tested: about 0.3 s on an idle machine, README "Limits")
 for args in "predict --config /dev/zero --gap 1nm --bias 0.1V" "fit /dev/zero" "resonances /dev/zero" "map /dev/zero"; do
-  start=$(date +%s%N)
   # shellcheck disable=SC2086
-  expect 3 "at most|not a regular file" -- timeout 5 "$TIPGAP" $args
-  ms=$(( ($(date +%s%N) - start) / 1000000 ))
-  [ "$ms" -lt 1000 ] || fail "4: tipgap $args took $ms ms"
+  expect 3 "at most|not a regular file" -- timeout 10 "$TIPGAP" $args
 done
 head -c 2000000 /dev/zero | tr '\0' '#' > big.yaml
 expect 3 "at most 1 MiB" -- "$TIPGAP" predict --config big.yaml --gap 1nm --bias 0.1V
@@ -74,6 +72,17 @@ expect 3 "2 YAML documents" -- "$TIPGAP" predict --config two_docs.yaml --gap 1n
 "$TIPGAP" synth --grid 6x6 --points-per-curve 32 --noise 1e-3A --out noisy_grid.csv > /dev/null 2>&1 || fail "7: synth grid"
 expect 4 "no pixel could be fitted" -- "$TIPGAP" map noisy_grid.csv --output-dir noisy_map
 [ ! -e noisy_map ] || fail "7: a map of blanks was written"
+
+# --- 8. Look-alike characters in units are accepted; others are named by code point
+nbsp=$(printf '\xc2\xa0') kelvin=$(printf '\xe2\x84\xaa') angstrom=$(printf '\xe2\x84\xab') minus=$(printf '\xe2\x88\x92')
+expect 0 "" -- "$TIPGAP" predict --gap "0.6${nbsp}nm" --bias "${minus}100 mV" --mc-samples 0 --format csv
+grep -q -- '-0.1' out.txt || fail "8: U+2212 MINUS SIGN was not read as a minus"
+expect 0 "" -- "$TIPGAP" predict --gap "6 ${angstrom}" --bias 0.1V --mc-samples 0 --format csv
+sed "s/^temperature: .*/temperature: 77 ${kelvin}/" "$TIPGAP_SOURCE_DIR/configs/default.yaml" > kelvin.yaml
+grep -q "$kelvin" kelvin.yaml || fail "8: the test config has no KELVIN SIGN"
+expect 0 "" -- "$TIPGAP" predict --config kelvin.yaml --gap 0.6nm --bias 0.1V --mc-samples 0 --format csv
+grep -q '^0.59.*,77,' out.txt || fail "8: the KELVIN SIGN temperature was not read as 77 K: $(tail -1 out.txt)"
+expect 3 "U\+2103" -- "$TIPGAP" predict --config <(sed "s/^temperature: .*/temperature: 77 $(printf '\xe2\x84\x83')/" "$TIPGAP_SOURCE_DIR/configs/default.yaml") --gap 0.6nm --bias 0.1V
 
 [ "$fails" = 0 ] || { echo "$fails failure(s)"; exit 1; }
 echo "hostile values: all checks passed"
