@@ -17,6 +17,7 @@
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
 #include "tipgap/core/interrupt.hpp"
+#include "tipgap/core/progress.hpp"
 #include "tipgap/io/output_path.hpp"
 #include "tipgap/io/output_transaction.hpp"
 
@@ -103,6 +104,8 @@ void add_command(CLI::App& app, command c) {
     cmd->callback([cmd, run = std::move(c.run)] {
         run_paths p = paths_of(cmd);
         check_run_paths(p.inputs, p.outputs);
+        const CLI::Option* quiet = cmd->get_option_no_throw("--quiet");
+        progress_scope progress("tipgap " + cmd->get_name(), !(quiet && quiet->count() > 0));
         output_transaction outputs(std::move(p.inputs));
         run(command_line(cmd));
         outputs.commit();
