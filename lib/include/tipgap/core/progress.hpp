@@ -17,7 +17,8 @@ namespace tipgap {
 class progress_scope {
 public:
     // label: what the line starts with ("tipgap predict"); enabled: false for --quiet; delay:
-    // how long a run stays silent (default 1.5 s). Draws only when stderr is a terminal.
+    // how long a run stays silent (default 1.5 s; the environment variable TIPGAP_PROGRESS_DELAY_MS
+    // overrides it). Draws only when stderr is a terminal.
     progress_scope(std::string label, bool enabled,
                    std::chrono::milliseconds delay = std::chrono::milliseconds(1500));
     progress_scope(const progress_scope&) = delete;
