@@ -114,8 +114,10 @@ TEST(output_path, stale_temporaries_of_dead_processes_are_removed) {
     std::ofstream(dead) << "partial";
     std::ofstream(live) << "partial";
     std::ofstream(s / ".r.csv.tmp-notes") << "not a temporary name";
+    std::ofstream(s / ".r.csv.tmp-99999999999999999999-0") << "a number beyond any pid";
     remove_stale_temporaries(s / "r.csv");
     EXPECT_FALSE(fs::exists(dead));
     EXPECT_TRUE(fs::exists(live));
     EXPECT_TRUE(fs::exists(s / ".r.csv.tmp-notes"));
+    EXPECT_TRUE(fs::exists(s / ".r.csv.tmp-99999999999999999999-0"));
 }

@@ -117,7 +117,9 @@ void remove_stale_temporaries(const std::string& target) {
         if (name.compare(0, prefix.size(), prefix) != 0) continue;
         const std::string rest = name.substr(prefix.size());  // "<pid>-<n>"
         const std::size_t dash = rest.find('-');
-        if (dash == 0 || dash == std::string::npos || rest.find_first_not_of("0123456789-") != std::string::npos) continue;
+        // pids fit in 9 digits on Linux (pid_max <= 4194304); a longer number is not our name.
+        if (dash == 0 || dash > 9 || dash == std::string::npos || rest.find_first_not_of("0123456789-") != std::string::npos)
+            continue;
         const long pid = std::stol(rest.substr(0, dash));
         if (pid <= 0 || pid == static_cast<long>(::getpid())) continue;
         if (::kill(static_cast<pid_t>(pid), 0) == 0 || errno != ESRCH) continue;  // alive, or not ours to judge
