@@ -68,7 +68,7 @@ with_meta "# bias: 0.2 V" > twice.csv
 expect 3 "given twice" -- "$TIPGAP" fit twice.csv
 expect 2 "noise" -- "$TIPGAP" synth --noise 1e300A --out s.csv
 (cat "$TIPGAP_SOURCE_DIR/configs/default.yaml"; printf -- '---\ntemperature: 77 K\n') > two_docs.yaml
-expect 3 "2 YAML documents" -- "$TIPGAP" predict --config two_docs.yaml --gap 1nm --bias 0.1V
+expect 3 "second YAML document" -- "$TIPGAP" predict --config two_docs.yaml --gap 1nm --bias 0.1V
 "$TIPGAP" synth --grid 6x6 --points-per-curve 32 --noise 1e-3A --out noisy_grid.csv > /dev/null 2>&1 || fail "7: synth grid"
 expect 4 "no pixel could be fitted" -- "$TIPGAP" map noisy_grid.csv --output-dir noisy_map
 [ ! -e noisy_map ] || fail "7: a map of blanks was written"
