@@ -7,7 +7,6 @@
 #include <fmt/format.h>
 #include <memory>
 #include <string>
-#include <unistd.h>
 
 #include "command.hpp"
 #include "fit_flags.hpp"
@@ -19,6 +18,8 @@
 #include "tipgap/figures/map_figures.hpp"
 #include "tipgap/grid/map.hpp"
 #include "tipgap/grid/map_files.hpp"
+#include "tipgap/core/progress.hpp"
+#include "tipgap/grid/map_checks.hpp"
 #include "tipgap/io/atomic_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/plot/plot.hpp"
@@ -49,26 +50,6 @@ map_figure_options to_map_figure_options(const std::string& range) {
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
     return o;
 }
-
-// A one-line bar redrawn in place; only for a terminal.
-class progress_bar {
-public:
-    void operator()(std::uint64_t done, std::uint64_t total) {
-        const double frac = total > 0 ? static_cast<double>(done) / static_cast<double>(total) : 1.0;
-        const int width = 40;
-        const int filled = static_cast<int>(frac * width);
-        fmt::print(stderr, "\rtipgap map: [{:#<{}}{:<{}}] {:3.0f}%  {:.0f}/{:.0f} MB", "", filled, "", width - filled,
-                   100.0 * frac, static_cast<double>(done) / 1e6, static_cast<double>(total) / 1e6);
-        std::fflush(stderr);
-        shown_ = true;
-    }
-    void finish() {
-        if (shown_) fmt::print(stderr, "\n");
-    }
-
-private:
-    bool shown_ = false;
-};
 
 std::string default_output_dir(const std::string& grid) {
     std::filesystem::path p(grid);
@@ -118,21 +99,14 @@ void run(const map_args& a) {
     o.read.reader = to_reader_options(a.read, "map", 4);
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
     const map_figure_options figure = to_map_figure_options(a.range);
-    auto bar = std::make_shared<progress_bar>();
-    if (!a.quiet && ::isatty(STDERR_FILENO)) o.read.progress = [bar](std::uint64_t d, std::uint64_t t) { (*bar)(d, t); };
+    o.read.progress = report_progress;  // the line itself: core/progress.hpp, opened by main.cpp
 
     const std::string out_dir = a.output_dir.empty() ? default_output_dir(a.grid) : a.output_dir;
     atomic_directory dir(out_dir, map_file_names());  // before the work, so that an unusable target fails at once
-    barrier_map m;
-    try {
-        m = make_barrier_map(a.grid, o);
-    } catch (...) {
-        bar->finish();
-        throw;
-    }
-    bar->finish();
+    const barrier_map m = make_barrier_map(a.grid, o);
     print_warnings(m.grid.warnings, m.grid.path);
     print_notes(m.grid.notes, m.grid.path);
+    require_fitted_pixel(m);
     const auto t1 = std::chrono::steady_clock::now();
     write_maps(m, dir, figure);
     const auto t2 = std::chrono::steady_clock::now();

@@ -5,6 +5,7 @@
 // kind is "error" (bad input, exit 3), "usage error" (bad command line, exit 2), "no answer" (a
 // well-formed request without a solution, exit 4) or "internal error" (a bug, exit 70).
 #include <CLI/CLI.hpp>
+#include <charconv>
 #include <cstdio>
 #include <exception>
 #include <fmt/format.h>
@@ -15,6 +16,10 @@
 #include "command.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
+#include "tipgap/core/interrupt.hpp"
+#include "tipgap/core/progress.hpp"
+#include "tipgap/io/output_path.hpp"
+#include "tipgap/io/output_transaction.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -44,6 +49,17 @@ void add_flag(CLI::App* cmd, const flag& f) {
                                            [&](output_format* p) { return add_format(cmd, f, *p); },
                                            [&](auto* p) { return cmd->add_option(f.names, *p, f.help); }},
                                 f.target);
+    // CLI11 would wrap "18446744073709551616" or "-1" into a valid-looking unsigned number.
+    if (std::holds_alternative<std::uint64_t*>(f.target))
+        o->check(CLI::Validator(
+            [](std::string& s) -> std::string {
+                std::uint64_t v = 0;
+                const auto [end, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
+                if (ec == std::errc::result_out_of_range) return quote_input(s) + " is beyond 2^64 - 1 = 18446744073709551615";
+                if (ec != std::errc() || end != s.data() + s.size()) return quote_input(s) + " is not a whole number >= 0";
+                return "";
+            },
+            "UINT"));
     if (!f.type_name.empty()) o->type_name(f.type_name);
     if (f.required) o->required();
     if (f.range) o->check(CLI::Range(f.range->first, f.range->second));
@@ -63,10 +79,37 @@ std::string command_line(const CLI::App* cmd) {
     return s;
 }
 
+// The files a run reads and writes, by option name, for the checks before any work.
+struct run_paths {
+    std::vector<std::string> inputs;
+    std::vector<run_output> outputs;
+};
+run_paths paths_of(const CLI::App* cmd) {
+    run_paths r;
+    for (const CLI::Option* opt : cmd->get_options()) {
+        const std::string n = opt->get_name();
+        const bool dir = n == "--output-dir" || (n == "--out" && cmd->get_name() == "demo");
+        for (const std::string& v : opt->results()) {
+            if (n == "files" || n == "file" || n == "grid" || n == "--config") r.inputs.push_back(v);
+            if (n == "--output" || n == "--plot" || n == "--out" || n == "--truth" || dir) r.outputs.push_back({v, dir});
+        }
+    }
+    return r;
+}
+
+// Runs a command with its outputs in one transaction: all are written or none.
 void add_command(CLI::App& app, command c) {
     CLI::App* cmd = app.add_subcommand(c.name, c.description);
     for (const flag& f : c.flags) add_flag(cmd, f);
-    cmd->callback([cmd, run = std::move(c.run)] { run(command_line(cmd)); });
+    cmd->callback([cmd, run = std::move(c.run)] {
+        run_paths p = paths_of(cmd);
+        check_run_paths(p.inputs, p.outputs);
+        const CLI::Option* quiet = cmd->get_option_no_throw("--quiet");
+        progress_scope progress("tipgap " + cmd->get_name(), !(quiet && quiet->count() > 0));
+        output_transaction outputs(std::move(p.inputs));
+        run(command_line(cmd));
+        outputs.commit();
+    });
 }
 
 // "tipgap predict" for a failure inside `predict`, else "tipgap".
@@ -210,6 +253,7 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", std::string("tipgap ") + TIPGAP_VERSION);
     app.require_subcommand(1, 1);
     app.fallthrough(false);
+    tipgap::install_interrupt_handlers();
     for (auto make : {predict_command, plan_command, table_command, fit_command, map_command, synth_command, resonances_command, demo_command})
         add_command(app, make());
     try {

@@ -24,8 +24,7 @@ flag config_flag(std::string& path, const char* help) { return {"--config,-c", h
 
 void write_output(const std::string& path, std::string_view content) {
     if (path.empty() || path == "-") {
-        std::fwrite(content.data(), 1, content.size(), stdout);
-        std::fflush(stdout);
+        write_stdout(content);
         return;
     }
     write_file_atomically(path, content);

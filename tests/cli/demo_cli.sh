@@ -136,6 +136,6 @@ set -e
 set +e
 "$TIPGAP" synth --out "$tmp/x.csv" --noise -1pA 2> "$tmp/err"; rc=$?
 set -e
-[ $rc -eq 2 ] && [ "$(cat "$tmp/err")" = "tipgap: usage error: --noise: must be >= 0" ] || fail "bad --noise: $rc $(cat "$tmp/err")"
+[ $rc -eq 2 ] && [ "$(cat "$tmp/err")" = "tipgap: usage error: --noise: must be from 0 to 0.001 A" ] || fail "bad --noise: $rc $(cat "$tmp/err")"
 [ ! -e "$tmp/x.csv" ] || fail "a failed synth left a file"
 echo "demo_cli: ok"

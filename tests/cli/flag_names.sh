@@ -25,8 +25,8 @@ expect() {
 
 expect 2 "tipgap: usage error: --current-noise: -1e-12 A is out of range; expected a current >= 0 (0 = estimate)" \
   fit "$curve" --current-noise -1pA
-expect 2 "tipgap: usage error: --noise: must be >= 0" synth --out "$tmp/s.csv" --noise -1pA
-expect 2 "tipgap: usage error: --confidence: 1.5 is out of range; expected a level in (0, 1), e.g. 0.95" \
+expect 2 "tipgap: usage error: --noise: must be from 0 to 0.001 A" synth --out "$tmp/s.csv" --noise -1pA
+expect 2 "tipgap: usage error: --confidence: 1.5 is out of range; expected a level in [0.5, 0.9999], e.g. 0.95" \
   map "$tmp/no_grid.csv" --output-dir "$tmp/m" --confidence 1.5
 expect 2 "tipgap: usage error: --min-decades: must be > 0" map "$tmp/no_grid.csv" --output-dir "$tmp/m" --min-decades 0
 expect 2 "tipgap: usage error: --threads: must be >= 0 (0 = all cores)" map "$tmp/no_grid.csv" --output-dir "$tmp/m" --threads -1

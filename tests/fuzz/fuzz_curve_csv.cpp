@@ -1,7 +1,9 @@
 // libFuzzer target: the curve reader (tipgap/curve_io.hpp) with reader options taken from the
 // input's last byte (delimiter, columns, flip_z, bias; fuzz_common.hpp), and the fitter on what it
 // accepts.
-// Property: the reader returns a curve whose values are finite, with equal-length columns and
+// Property: the reader returns a curve whose values are finite, whose metadata values are in
+// their ranges (|bias| <= 100 V, temperature in [0, 2000] K) and whose metadata and file name make
+// valid JSON whatever their bytes (issue 11), with equal-length columns and
 // sweeps that partition the rows, or throws tipgap::error; the fitter returns finite numbers (a
 // positive decay constant) or throws tipgap::error.
 #include <cmath>
@@ -11,6 +13,7 @@
 #include <string_view>
 
 #include "fuzz_common.hpp"
+#include "tipgap/io/columns.hpp"
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/fit/fit.hpp"
 
@@ -29,6 +32,15 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
             rows += s.z_m.size();
         }
         if (rows != c.z_m.size()) std::abort();
+        if (c.metadata.bias_V && !(std::abs(*c.metadata.bias_V) <= 100.0 * (1 + 1e-12))) std::abort();
+        if (c.metadata.temperature_K && !(*c.metadata.temperature_K >= 0 && *c.metadata.temperature_K <= 2000.0 * (1 + 1e-12)))
+            std::abort();
+        // Any bytes in metadata keys and values: json_text replaces invalid UTF-8, never throws.
+        tipgap::record meta;
+        for (const auto& [key, value] : c.metadata.entries) meta.set(key, value);
+        meta.set("file", std::string(text.substr(0, 40)));
+        const std::string json = tipgap::json_text(meta);
+        if (json.empty() || json.front() != '{') std::abort();
         // A curve the reader accepts goes on to the fitter: it must give finite numbers or refuse
         // with tipgap::error (a sweep that is too short, all below the noise floor, no spread in z).
         for (const tipgap::fit_result& r : tipgap::fit_curve(c, tipgap::fit_options{})) {

@@ -133,7 +133,7 @@ TEST(curve_io, read_from_disk_and_missing_file) {
         read_curve_csv(missing);
         FAIL() << "no throw";
     } catch (const error& e) {
-        EXPECT_EQ(std::string(e.what()), missing + ": cannot open the file for reading");
+        EXPECT_EQ(std::string(e.what()), missing + ": cannot open the file for reading: No such file or directory");
     }
 }
 

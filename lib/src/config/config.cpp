@@ -1,5 +1,8 @@
 #include "tipgap/config/config.hpp"
 
+#include "io/detail/read_capped.hpp"
+
+#include <algorithm>
 #include <cstdint>
 #include <filesystem>
 #include <fmt/format.h>
@@ -198,8 +201,31 @@ config parse_root(const YAML::Node& root, const std::string& name) {
     return c;
 }
 
+// The 1-based line of a "---" that starts a second document (one after any content), or 0.
+int second_document_line(std::string_view text) {
+    bool content = false;
+    int line = 0;
+    for (std::size_t i = 0; i < text.size();) {
+        std::size_t end = text.find('\n', i);
+        if (end == std::string_view::npos) end = text.size();
+        const std::string_view l = text.substr(i, end - i);
+        ++line;
+        i = end + 1;
+        const bool separator = l.substr(0, 3) == "---" && (l.size() == 3 || l[3] == ' ' || l[3] == '\t' || l[3] == '\r');
+        if (separator && content) return line;
+        const std::size_t first = l.find_first_not_of(" \t\r");
+        if (!separator && first != std::string_view::npos && l[first] != '#' && l[first] != '%') content = true;
+    }
+    return 0;
+}
+
 YAML::Node load_yaml(std::string_view text, const std::string& name) {
     try {
+        // A second document ("---" and more keys) would be dropped silently by YAML::Load. (Not
+        // YAML::LoadAll: it loops forever on some malformed input, found by fuzz_config.)
+        if (const int line = second_document_line(text); line > 0)
+            throw_input(location{name, line, 1, ""}, "a second YAML document starts here; expected one configuration "
+                                                     "(remove the '---' separator and merge the keys)");
         return YAML::Load(std::string(text));
     } catch (const YAML::ParserException& e) {
         location w;
@@ -244,22 +270,10 @@ config parse_config(std::string_view text, const std::string& name) {
 }
 
 config load_config(const std::string& path) {
-    location w;
-    w.file = path;
-    std::error_code ec;
-    if (std::filesystem::is_directory(path, ec)) throw_input(w, "this is a directory; expected a YAML file");
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw_input(w, "cannot open the configuration file; expected a readable YAML file");
     // A configuration is a few hundred bytes. yaml-cpp builds a node tree of many times the file's
-    // size, so a file far beyond any configuration (a data file given by mistake) is refused first.
-    constexpr std::uintmax_t max_bytes = 1u << 20;
-    const std::uintmax_t size = std::filesystem::file_size(path, ec);
-    if (!ec && size > max_bytes) {
-        throw_input(w, fmt::format("the file has {} bytes; expected a configuration of at most 1 MiB", size));
-    }
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    return parse_config(ss.str(), path);
+    // size, so a file far beyond any configuration (a data file given by mistake, /dev/zero) is
+    // refused first.
+    return parse_config(detail::read_capped(path, detail::config_cap_bytes, false, "a configuration"), path);
 }
 
 config default_config() { return parse_config(embedded::default_yaml, "<default>"); }

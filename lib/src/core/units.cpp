@@ -156,8 +156,48 @@ double parse_number(std::string_view text, const location& where) {
     return v;
 }
 
+namespace {
+
+// Characters that look like the ASCII or usual ones and are accepted as them: KELVIN SIGN,
+// ANGSTROM SIGN, OHM SIGN, MINUS SIGN, and the no-break, narrow no-break and thin spaces that
+// word processors put between a number and its unit. (U+00B5 and U+03BC are both in the tables.)
+struct lookalike {
+    std::string_view from, to;
+};
+constexpr lookalike lookalikes[] = {{"\u212A", "K"}, {"\u212B", "Å"}, {"\u2126", "Ω"}, {"\u2212", "-"},
+                                    {"\u00A0", " "}, {"\u202F", " "}, {"\u2009", " "}};
+
+std::string without_lookalikes(std::string_view text) {
+    std::string out(text);
+    for (const lookalike& l : lookalikes)
+        for (std::size_t at = out.find(l.from); at != std::string::npos; at = out.find(l.from, at + l.to.size()))
+            out.replace(at, l.from.size(), l.to);
+    return out;
+}
+
+// " (it holds U+2103, which is not a unit letter tipgap knows)" for the first non-ASCII character
+// of a unit that was not found, or "".
+std::string first_unusual_character(std::string_view unit) {
+    for (std::size_t i = 0; i < unit.size(); ++i) {
+        const auto b = static_cast<unsigned char>(unit[i]);
+        if (b < 0x80) continue;
+        char32_t cp = 0;
+        int n = b >= 0xF0 ? 3 : b >= 0xE0 ? 2 : b >= 0xC0 ? 1 : 0;
+        cp = n == 3 ? b & 0x07u : n == 2 ? b & 0x0Fu : n == 1 ? b & 0x1Fu : b;
+        for (int k = 1; k <= n && i + static_cast<std::size_t>(k) < unit.size(); ++k)
+            cp = (cp << 6) | (static_cast<unsigned char>(unit[i + static_cast<std::size_t>(k)]) & 0x3Fu);
+        if (cp == 0xB5 || cp == 0x3BC || cp == 0xC5 || cp == 0x3A9 || cp == 0xB2) continue;  // µ, μ, Å, Ω, ²: known
+        return fmt::format(" (it holds U+{:04X}, a character that only looks like a unit letter; type the unit in ASCII)",
+                           static_cast<unsigned>(cp));
+    }
+    return "";
+}
+
+}  // namespace
+
 double parse_quantity(std::string_view text, dimension d, const location& where) {
-    std::string_view s = trim(text);
+    const std::string plain = without_lookalikes(text);
+    std::string_view s = trim(plain);
     if (s.empty()) {
         throw_input(where, fmt::format("empty value; expected {} ({})", dimension_phrase(d), accepted_units(d)));
     }
@@ -181,8 +221,8 @@ double parse_quantity(std::string_view text, dimension d, const location& where)
         throw_input(where, fmt::format("{} has a unit; expected a plain number without a unit", quote_input(s)));
     }
     if (!unit_factor(d, unit, factor)) {
-        throw_input(where, fmt::format("unknown unit {} in {}; expected {} in {}", quote_input(unit, 20),
-                                       quote_input(s), dimension_phrase(d), accepted_units(d)));
+        throw_input(where, fmt::format("unknown unit {} in {}; expected {} in {}{}", quote_input(unit, 20),
+                                       quote_input(s), dimension_phrase(d), accepted_units(d), first_unusual_character(unit)));
     }
     // "1e308 kV" is a finite number times a finite factor, but not a finite voltage.
     const double si_value = v * factor;

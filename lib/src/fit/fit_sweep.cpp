@@ -27,8 +27,9 @@ void fit_options::validate() const {
     if (!(calibration_uncertainty >= 0.0 && calibration_uncertainty < 0.5))
         bad("calibration_uncertainty", fmt::format("{:g}", calibration_uncertainty),
             "a relative uncertainty in [0, 0.5), e.g. 0.02");
-    if (!(confidence_level > 0.0 && confidence_level < 1.0))
-        bad("confidence_level", fmt::format("{:g}", confidence_level), "a level in (0, 1), e.g. 0.95");
+    // Beyond [0.5, 0.9999] a t quantile is dominated by the tail approximation of a few points.
+    if (!(confidence_level >= 0.5 && confidence_level <= 0.9999))
+        bad("confidence_level", fmt::format("{:g}", confidence_level), "a level in [0.5, 0.9999], e.g. 0.95");
     if (window_points != 0 && window_points < 4)
         bad("window_points", fmt::format("{} points", window_points), "at least 4 points (or 0 for the default)");
     if (!(window_m >= 0.0) || !std::isfinite(window_m))

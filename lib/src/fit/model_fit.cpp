@@ -19,7 +19,7 @@ void model_fit_options::validate() const {
     if (max_iterations < 5 || max_iterations > 1000) bad("max_iterations", "must be in [5, 1000]");
     if (grid_points < 8 || grid_points > 1000) bad("grid_points", "must be in [8, 1000]");
     if (!(work_function_step_J > 0.0)) bad("work_function_step_J", "must be > 0");
-    if (!(confidence_level > 0.0 && confidence_level < 1.0)) bad("confidence_level", "must be in (0, 1)");
+    if (!(confidence_level >= 0.5 && confidence_level <= 0.9999)) bad("confidence_level", "must be in [0.5, 0.9999]");
 }
 
 config with_mean_work_function(const config& c, double mean_J) {

@@ -153,7 +153,7 @@ void resonance_options::validate() const {
     require(std::isfinite(smoothing_half_width_V) && smoothing_half_width_V > 0 && smoothing_half_width_V <= 2,
             "smoothing", fmt::format("{:g} V is out of range; expected a half width in (0, 2] V", smoothing_half_width_V));
     require(min_modulation >= 0 && min_modulation < 1, "min_modulation", "expected a fraction in [0, 1)");
-    require(confidence_level > 0 && confidence_level < 1, "confidence_level", "expected a level in (0, 1)");
+    require(confidence_level >= 0.5 && confidence_level <= 0.9999, "confidence_level", "expected a level in [0.5, 0.9999]");
     require(max_model_traces >= 3 && max_model_traces <= 50, "max_model_traces", "expected 3 to 50 model traces");
     require(threads >= 0, "threads", "expected 0 (all cores) or a positive count");
 }

@@ -3,12 +3,18 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <cerrno>
+#include <cstring>
 #include <fcntl.h>
+#include <stdio.h>
 #include <filesystem>
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include "io/detail/replace_directory.hpp"
 #include "tipgap/io/atomic_file.hpp"
+#include "tipgap/io/output_path.hpp"
+#include "tipgap/io/output_transaction.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap {
@@ -35,7 +41,9 @@ void fsync_path(const std::string& p) {
 atomic_directory::atomic_directory(std::string target, std::vector<std::string> replaceable)
     : target_(without_trailing_slash(std::move(target))), replaceable_(std::move(replaceable)) {
     check_replaceable();
+    remove_stale_temporaries(target_);
     tmp_ = temporary_sibling(target_);
+    registration_ = std::make_unique<registered_temporary>(tmp_, true);
     std::error_code ec;
     if (!fs::create_directory(tmp_, ec) || ec) {
         throw_input(location{target_, 0, 0, ""},
@@ -75,23 +83,31 @@ void atomic_directory::check_replaceable() const {
 void atomic_directory::commit() {
     fsync_path(tmp_);
     check_replaceable();
-    const location where{target_, 0, 0, ""};
-    std::error_code ec;
-    std::string old;
-    if (fs::exists(fs::symlink_status(target_, ec))) {
-        old = temporary_sibling(target_);
-        if (std::rename(target_.c_str(), old.c_str()) != 0) {
-            throw_input(where, "cannot move the existing directory aside to replace it");
-        }
-    }
-    if (std::rename(tmp_.c_str(), target_.c_str()) != 0) {
-        if (!old.empty()) std::rename(old.c_str(), target_.c_str());
-        throw_input(where, "cannot rename the finished output into place");
-    }
     committed_ = true;
-    const fs::path parent = fs::path(target_).parent_path();
-    fsync_path(parent.empty() ? "." : parent.string());
-    if (!old.empty()) fs::remove_all(old, ec);
+    finish_output({tmp_, target_, target_, true});
 }
 
+namespace detail {
+
+void replace_directory(const std::string& tmp, const std::string& target, const std::string& user_path) {
+    const location where{user_path, 0, 0, ""};
+    std::error_code ec;
+    const bool exists = fs::exists(fs::symlink_status(target, ec));
+    if (!exists) {
+        if (std::rename(tmp.c_str(), target.c_str()) != 0) {
+            const int err = errno;
+            fs::remove_all(tmp, ec);
+            throw_input(where, fmt::format("cannot rename the finished output into place: {}", std::strerror(err)));
+        }
+    } else if (::renameat2(AT_FDCWD, tmp.c_str(), AT_FDCWD, target.c_str(), RENAME_EXCHANGE) != 0) {
+        const int err = errno;
+        fs::remove_all(tmp, ec);
+        throw_input(where, fmt::format("cannot swap the finished output into place: {}", std::strerror(err)));
+    }
+    const fs::path parent = fs::path(target).parent_path();
+    fsync_path(parent.empty() ? "." : parent.string());
+    if (exists) fs::remove_all(tmp, ec);  // after the exchange, tmp names the old tree
+}
+
+}  // namespace detail
 }  // namespace tipgap

@@ -195,6 +195,16 @@ nlohmann::ordered_json to_json(const cell& c, bool sort_keys) {
 
 }  // namespace
 
-std::string json_text(const cell& document, bool sort_keys) { return to_json(document, sort_keys).dump(2) + "\n"; }
+std::string json_text(const cell& document, bool sort_keys) {
+    nlohmann::ordered_json j = to_json(document, sort_keys);
+    try {
+        return j.dump(2) + "\n";
+    } catch (const nlohmann::json::type_error&) {
+        // Invalid UTF-8 in a file name, label or metadata value: each bad byte becomes U+FFFD and
+        // the document says so, so that the JSON stays valid and the change is not silent.
+        if (j.is_object()) j["invalid_utf8_replaced"] = true;
+        return j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n";
+    }
+}
 
 }  // namespace tipgap

@@ -1,5 +1,7 @@
 #include "tipgap/io/curve_io.hpp"
 
+#include "io/detail/read_capped.hpp"
+
 #include <algorithm>
 #include <cctype>
 #include <cstdint>
@@ -223,25 +225,7 @@ measured_curve parse_curve_csv(std::string_view text, const std::string& file, c
 }
 
 measured_curve read_curve_csv(const std::string& path, const reader_options& options) {
-    std::error_code ec;
-    if (std::filesystem::is_directory(path, ec)) {
-        throw_input(location{path, 0, 0, ""}, "this is a directory; expected a curve file (CSV)");
-    }
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw_input(location{path, 0, 0, ""}, "cannot open the file for reading");
-    // One read of the whole file into a buffer of its size: a character-by-character copy takes
-    // seconds and twice the memory on a file with a gigabyte-long line.
-    std::string text;
-    const std::uintmax_t size = std::filesystem::file_size(path, ec);
-    if (!ec) {
-        text.resize(static_cast<std::size_t>(size));
-        in.read(text.data(), static_cast<std::streamsize>(size));
-        text.resize(static_cast<std::size_t>(in.gcount()));
-        // A file that grew while being read (or a pipe) still gets read to its end.
-        text.append(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
-    } else {
-        text.assign(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
-    }
+    const std::string text = detail::read_capped(path, detail::stream_cap_bytes, true, "a curve file (CSV)");
     return parse_curve_csv(text, path, options);
 }
 

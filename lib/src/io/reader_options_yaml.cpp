@@ -8,6 +8,8 @@
 #include "tipgap/core/units.hpp"
 #include "tipgap/io/reader_options.hpp"
 
+#include "io/detail/read_capped.hpp"
+
 namespace tipgap {
 
 namespace {
@@ -60,11 +62,10 @@ void read_key(const std::string& file, const std::string& key, const YAML::Node&
 }  // namespace
 
 reader_options load_reader_options(const std::string& path) {
-    std::error_code ec;
-    if (!std::filesystem::is_regular_file(path, ec)) throw_input(location{path, 0, 0, ""}, "cannot open the reader options");
+    const std::string text = detail::read_capped(path, detail::config_cap_bytes, false, "reader options (YAML)");
     YAML::Node root;
     try {
-        root = YAML::LoadFile(path);
+        root = YAML::Load(text);
     } catch (const YAML::Exception& e) {
         throw_input(location{path, e.mark.line + 1, e.mark.column + 1, ""}, fmt::format("not valid YAML: {}", e.msg));
     }

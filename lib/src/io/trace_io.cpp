@@ -1,6 +1,8 @@
 // Bias-sweep traces z(V) / dI/dV(V), read with the curve reader's CSV and header helpers.
 #include "tipgap/io/trace_io.hpp"
 
+#include "io/detail/read_capped.hpp"
+
 #include <algorithm>
 #include <filesystem>
 #include <fmt/format.h>
@@ -179,13 +181,7 @@ bias_trace parse_bias_trace(std::string_view text, const std::string& file) {
 }
 
 bias_trace read_bias_trace(const std::string& path) {
-    std::error_code ec;
-    if (std::filesystem::is_directory(path, ec)) {
-        throw_input(location{path, 0, 0, ""}, "this is a directory; expected a trace file (CSV)");
-    }
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw_input(location{path, 0, 0, ""}, "cannot open the file for reading");
-    std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    const std::string text = detail::read_capped(path, detail::stream_cap_bytes, true, "a trace file (CSV)");
     return parse_bias_trace(text, path);
 }
 

@@ -1,3 +1,4 @@
+#include "tipgap/core/limits.hpp"
 #include "tipgap/model/model.hpp"
 
 #include <cmath>
@@ -24,7 +25,7 @@ void require(bool ok, const char* key, double value, const char* unit, const std
 void model_options::validate() const {
     constexpr double eV = si::electron_volt;
     auto in = [](double v, double lo, double hi, bool lo_open) {
-        return std::isfinite(v) && (lo_open ? v > lo : v >= lo) && v <= hi;
+        return std::isfinite(v) && (lo_open ? v > lo : at_least(v, lo)) && at_most(v, hi);
     };
     // A work function <= 0 has no barrier to tunnel through; above 20 eV no metal exists.
     require(in(tip.work_function_J, 0, 20 * eV, true), "tip.work_function", tip.work_function_J / eV, "eV",

@@ -1,4 +1,5 @@
 // The gap solver: safeguarded Newton iteration on ln|I(s)| - ln|I_set| over the physical gap range.
+#include "tipgap/core/limits.hpp"
 #include "tipgap/plan/plan.hpp"
 
 #include <algorithm>
@@ -19,7 +20,7 @@ void plan_options::validate() const {
         throw_input(w, why);
     };
     if (!(std::isfinite(gap_min_m) && gap_min_m > 0)) bad("gap_min", "must be a positive gap");
-    if (!(std::isfinite(gap_max_m) && gap_max_m > gap_min_m && gap_max_m <= 100e-9))
+    if (!(std::isfinite(gap_max_m) && gap_max_m > gap_min_m && at_most(gap_max_m, 100e-9)))
         bad("gap_max", "must be above gap_min and at most 100 nm");
     if (!(log_current_tol >= 1e-15 && log_current_tol <= 1e-2)) bad("log_current_tol", "must be in [1e-15, 1e-2]");
     if (!(gap_tol_m >= 0 && std::isfinite(gap_tol_m))) bad("gap_tol", "must be >= 0");

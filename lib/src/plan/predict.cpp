@@ -1,3 +1,4 @@
+#include "tipgap/core/limits.hpp"
 #include "tipgap/plan/predict.hpp"
 
 #include <cmath>
@@ -18,7 +19,7 @@ void validate_operating_point(const model_options& m, double gap, double bias, c
         w.key = gap_key;
         throw_input(w, fmt::format("gap {:g} nm is not positive; expected a gap in (0, 100] nm", gap * 1e9));
     }
-    if (gap > 100e-9) {
+    if (!at_most(gap, 100e-9)) {
         w.key = gap_key;
         throw_input(w, fmt::format("gap {:g} nm is beyond the model's range; expected a gap in (0, 100] nm",
                                    gap * 1e9));
@@ -64,6 +65,11 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
                                  total_current(c.model, c.geometry, s, V - dV)) / (2.0 * dV * p.current_A);
         }
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
+        // Far gaps: the current is below the smallest double, and the quantities derived from
+        // ln|I| (apparent barrier) have no value; say so instead of a bare null.
+        if (p.current_A == 0.0 && V != 0.0)
+            p.warnings.push_back("the current is below 1e-308 A (it underflows double precision); the apparent "
+                                 "barrier has no value at this gap");
     });
     return out;
 }

@@ -1,10 +1,14 @@
 // The teaching table: textbook rectangular-barrier numbers and the model at a reference setpoint.
 #include "tipgap/plan/reference_table.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "core/detail/parallel.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/core/error.hpp"
 #include "tipgap/plan/predict.hpp"
 
 namespace tipgap {
@@ -45,6 +49,19 @@ std::vector<reference_row> reference_table(const config& c, const std::vector<st
         r.model_nm_per_decade = p.nm_per_decade;
         r.warnings = p.warnings;
     });
+    std::vector<std::string> unreachable;
+    for (const reference_row& r : rows)
+        if (!std::isfinite(r.gap_m)) unreachable.push_back(r.sample);
+    if (!unreachable.empty()) {
+        location w;
+        w.key = "current";
+        const auto& first = *std::find_if(rows.begin(), rows.end(), [](const auto& r) { return !std::isfinite(r.gap_m); });
+        throw error(error_kind::no_answer, w,
+                    fmt::format("the reference setpoint {:g} A at {:g} V cannot be reached for {}{}{}", current_A, bias_V,
+                                fmt::join(unreachable.begin(), unreachable.begin() + std::min<std::size_t>(unreachable.size(), 4), ", "),
+                                unreachable.size() > 4 ? fmt::format(" and {} more", unreachable.size() - 4) : "",
+                                first.warnings.empty() ? "" : "; " + first.warnings.front()));
+    }
     return rows;
 }
 

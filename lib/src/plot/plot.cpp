@@ -19,6 +19,9 @@
 #include "plot/detail/plot_draw.hpp"
 #include "plot/detail/plot_style.hpp"
 #include "tipgap/io/atomic_file.hpp"
+#include "tipgap/io/output_path.hpp"
+#include "tipgap/io/output_transaction.hpp"
+#include "tipgap/core/interrupt.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap::plot {
@@ -73,11 +76,43 @@ int throw_on_plplot_exit(const char* message) {
 // Removes the temporary file unless the figure made it to its target.
 struct temporary_file {
     std::string path;
+    registered_temporary registration{path, false};
     bool keep = false;
     ~temporary_file() {
         if (!keep) std::remove(path.c_str());
     }
 };
+
+// PLplot reports some failures (an unwritable file, a driver problem) by printing to stderr and
+// carrying on (plabort, plwarn); the abort handler keeps the first message so that it becomes one
+// tipgap error instead.
+std::string plplot_abort_message;
+void keep_plplot_abort(const char* message) {
+    if (plplot_abort_message.empty()) plplot_abort_message = message ? message : "unknown error";
+}
+
+// Whether the renderer finished the file: a PNG ends with its IEND chunk, a PDF with %%EOF, an
+// SVG with </svg> (trailing white space allowed). A full disk leaves a file cut short.
+bool looks_complete(const std::string& path, file_format format) {
+    std::FILE* f = std::fopen(path.c_str(), "rb");
+    if (!f) return false;
+    char tail[64] = {};
+    std::fseek(f, 0, SEEK_END);
+    const long size = std::ftell(f);
+    const long n = std::min<long>(size, static_cast<long>(sizeof tail));
+    std::fseek(f, size - n, SEEK_SET);
+    const std::size_t got = std::fread(tail, 1, static_cast<std::size_t>(n), f);
+    std::fclose(f);
+    std::string_view t(tail, got);
+    while (!t.empty() && std::isspace(static_cast<unsigned char>(t.back()))) t.remove_suffix(1);
+    auto ends = [&](std::string_view e) { return t.size() >= e.size() && t.substr(t.size() - e.size()) == e; };
+    switch (format) {
+    case file_format::png: return ends(std::string_view("IEND\xAE\x42\x60\x82", 8));
+    case file_format::pdf: return ends("%%EOF");
+    case file_format::svg: return ends("</svg>");
+    }
+    return false;
+}
 
 void validate(const figure& fig, const std::string& path) {
     location where;
@@ -211,30 +246,34 @@ void write_figure(const figure& fig, const std::string& path) {
 
     // Create the temporary ourselves: PLplot would otherwise report an unopenable file by asking
     // for another name on stdin, and O_EXCL makes sure we never write through someone else's file.
-    temporary_file tmp{temporary_sibling(path)};
-    const int fd = ::open(tmp.path.c_str(), O_WRONLY | O_CREAT | O_EXCL, 0666);
+    const std::string target = output_target(path);
+    remove_stale_temporaries(target);
+    temporary_file tmp{temporary_sibling(target)};
+    const int fd = ::open(tmp.path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0666);
     if (fd < 0) {
         tmp.keep = true;  // not ours: nothing to remove
+        tmp.registration.release();
         throw_input(where, "cannot open for writing (does the directory exist and is it writable?)");
     }
     ::close(fd);
 
     plsexit(throw_on_plplot_exit);
+    plsabort(keep_plplot_abort);
+    plplot_abort_message.clear();
     try {
         render(fig, tmp.path, format);
     } catch (const error& e) {
         throw error(e.kind(), where, e.detail());
     }
-
-    struct stat st {};
-    if (::stat(tmp.path.c_str(), &st) != 0 || st.st_size == 0) throw_input(where, "PLplot wrote an empty file");
-    const int rfd = ::open(tmp.path.c_str(), O_RDONLY);
-    if (rfd >= 0) {
-        ::fsync(rfd);
-        ::close(rfd);
-    }
-    if (std::rename(tmp.path.c_str(), path.c_str()) != 0) throw_input(where, "cannot replace the file");
+    if (!plplot_abort_message.empty()) throw_input(where, fmt::format("plotting failed in PLplot: {}", plplot_abort_message));
+    if (!looks_complete(tmp.path, format))
+        throw_input(where, "the figure was not written completely (is the disk full?); nothing was written");
+    const int rfd = ::open(tmp.path.c_str(), O_RDONLY | O_CLOEXEC);
+    const bool synced = rfd >= 0 && ::fsync(rfd) == 0;
+    if (rfd >= 0) ::close(rfd);
+    if (!synced) throw_input(where, "cannot write the file (fsync failed); nothing was written");
     tmp.keep = true;
+    finish_output({tmp.path, target, path, false});
 }
 
 }  // namespace tipgap::plot

@@ -7,6 +7,7 @@
 
 #include "synth/detail/normal_source.hpp"
 #include "synth/detail/synth_internal.hpp"
+#include "tipgap/core/limits.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/model/geometry.hpp"
@@ -18,15 +19,24 @@ void synth_options::validate(const model_options& model) const {
     if (!(std::isfinite(bias_V) && bias_V != 0.0 && std::abs(bias_V) <= model.bias_limit_V))
         bad("bias_V", fmt::format("must be non-zero and within the bias limit of {:g} V", model.bias_limit_V));
     if (!(gap_min_m > 0.0 && std::isfinite(gap_min_m))) bad("gap_min_m", "must be > 0");
-    if (!(gap_max_m > gap_min_m && gap_max_m <= 10e-9)) bad("gap_max_m", "must be above gap_min_m and at most 10 nm");
+    if (!(gap_max_m > gap_min_m))
+        bad("gap_max_m", fmt::format("the range {:g} nm..{:g} nm does not rise; expected FROM below TO", gap_min_m * 1e9,
+                                     gap_max_m * 1e9));
+    if (!at_most(gap_max_m, 10e-9)) bad("gap_max_m", fmt::format("{:g} nm is too far; expected at most 10 nm", gap_max_m * 1e9));
+    // A span of a few picometres holds no decay information: the fit would see noise only.
+    if (gap_max_m - gap_min_m < min_gap_span_m)
+        bad("gap_max_m", fmt::format("the range {:g} nm..{:g} nm spans {:.3g} pm; expected at least {:g} pm", gap_min_m * 1e9,
+                                     gap_max_m * 1e9, (gap_max_m - gap_min_m) * 1e12, min_gap_span_m * 1e12));
     if (points < 8 || points > 1000000) bad("points", "must be in [8, 1000000]");
     if (!std::isnan(gap_at_z0_m) && !std::isfinite(gap_at_z0_m)) bad("gap_at_z0_m", "must be finite");
-    if (!(current_noise_A >= 0.0 && std::isfinite(current_noise_A))) bad("current_noise_A", "must be >= 0");
-    if (!std::isfinite(baseline_A)) bad("baseline_A", "must be finite");
+    if (!(current_noise_A >= 0.0 && at_most(current_noise_A, max_synth_current_A)))
+        bad("current_noise_A", fmt::format("must be from 0 to {:g} A", max_synth_current_A));
+    if (!(std::abs(baseline_A) <= max_synth_current_A))
+        bad("baseline_A", fmt::format("must be within ±{:g} A", max_synth_current_A));
     if (!(gap_jitter_m >= 0.0 && gap_jitter_m <= 0.1e-9)) bad("gap_jitter_m", "must be in [0, 0.1 nm]");
     if (!(saturation_A >= 0.0 && std::isfinite(saturation_A))) bad("saturation_A", "must be >= 0 (0 = no clipping)");
     if (!(std::abs(drift_m) < 1e-9)) bad("drift_m", "must be below 1 nm in magnitude");
-    if (!(jump_gap_m >= 0.0 && jump_gap_m < gap_max_m)) bad("jump_gap_m", "must be >= 0 and below gap_max_m");
+    if (!(jump_gap_m >= 0.0 && jump_gap_m < gap_max_m)) bad("jump_gap_m", "must be >= 0 and below the farthest gap");
     if (!(contact_conductance_G0 > 0.0 && contact_conductance_G0 <= 100.0))
         bad("contact_conductance_G0", "must be in (0, 100]");
     if (gap_min_m + std::min(drift_m, 0.0) <= 0.0) bad("drift_m", "would drive the gap to zero or below");

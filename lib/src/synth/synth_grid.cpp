@@ -7,6 +7,7 @@
 
 #include "synth/detail/normal_source.hpp"
 #include "synth/detail/synth_internal.hpp"
+#include "tipgap/core/text.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/fit/fit.hpp"
@@ -88,7 +89,7 @@ std::string grid_header(const config& c, const synth_options& o, const synth_gri
                         const std::string& truth_path, const std::string& command_line) {
     std::string buf;
     buf += "# synthetic grid made by tipgap synth from its own model: not a measurement\n";
-    if (!command_line.empty()) buf += "# command: " + command_line + "\n";
+    if (!command_line.empty()) buf += "# command: " + single_line(command_line) + "\n";
     buf += fmt::format("# bias: {:.9g} V\n", o.bias_V);
     buf += fmt::format("# temperature: {:.9g} K\n", c.model.temperature_K);
     buf += fmt::format("# grid: {}x{}\n", g.nx, g.ny);
@@ -96,7 +97,7 @@ std::string grid_header(const config& c, const synth_options& o, const synth_gri
     buf += fmt::format("# points_per_curve: {}\n", o.points);
     buf += fmt::format("# pattern: {}\n", to_string(g.pattern));
     buf += fmt::format("# seed: {}\n", o.seed);
-    buf += fmt::format("# truth: {}\n", std::filesystem::path(truth_path).filename().string());
+    buf += fmt::format("# truth: {}\n", single_line(std::filesystem::path(truth_path).filename().string()));
     buf += "x [nm],y [nm],z [nm],current [pA]\n";
     return buf;
 }

@@ -7,6 +7,7 @@
 #include <yaml-cpp/yaml.h>
 
 #include "synth/detail/synth_internal.hpp"
+#include "tipgap/core/text.hpp"
 #include "tipgap/io/atomic_file.hpp"
 #include "tipgap/core/constants.hpp"
 
@@ -82,13 +83,13 @@ void write_synth_curve(const synth_curve& curve, const config& c, const synth_op
     const std::string truth_name = std::filesystem::path(truth_path).filename().string();
     std::string text;
     text += "# synthetic curve made by tipgap synth from its own model: not a measurement\n";
-    if (!command_line.empty()) text += "# command: " + command_line + "\n";
+    if (!command_line.empty()) text += "# command: " + single_line(command_line) + "\n";
     text += fmt::format("# bias: {} V\n", num(o.bias_V));
     text += fmt::format("# temperature: {} K\n", num(c.model.temperature_K));
-    text += fmt::format("# tip: {}\n", o.tip_label.empty() ? electrode_label(c.model.tip) : o.tip_label);
-    text += fmt::format("# sample: {}\n", o.sample_label.empty() ? electrode_label(c.model.sample) : o.sample_label);
+    text += fmt::format("# tip: {}\n", single_line(o.tip_label.empty() ? electrode_label(c.model.tip) : o.tip_label));
+    text += fmt::format("# sample: {}\n", single_line(o.sample_label.empty() ? electrode_label(c.model.sample) : o.sample_label));
     text += fmt::format("# seed: {}\n", o.seed);
-    text += fmt::format("# truth: {}\n", truth_name);
+    text += fmt::format("# truth: {}\n", single_line(truth_name));
     text += pair ? "z [nm],current [pA],direction\n" : "z [nm],current [pA]\n";
     char buf[64];
     for (const synth_sample& p : curve.samples) {

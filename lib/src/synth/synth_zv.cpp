@@ -5,6 +5,7 @@
 
 #include "core/detail/parallel.hpp"
 #include "synth/detail/normal_source.hpp"
+#include "tipgap/core/text.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/fit/resonances.hpp"
@@ -100,7 +101,7 @@ void write_zv_trace(const zv_synth_trace& t, const config& c, const zv_synth_opt
                     const std::string& truth_path, const std::string& command_line) {
     const double eV = si::electron_volt;
     std::string csv = "# synthetic: constant-current z(V) trace from tipgap's exact-transmission model, not a measurement\n";
-    if (!command_line.empty()) csv += fmt::format("# generator: {}\n", command_line);
+    if (!command_line.empty()) csv += fmt::format("# generator: {}\n", single_line(command_line));
     csv += fmt::format("# current: {:g} nA\n# temperature: {:g} K\n# z_noise: {:g} nm\n# seed: {}\n", o.current_A * 1e9,
                        c.model.temperature_K, o.z_noise_m * 1e9, o.seed);
     csv += "bias [V],z [nm]\n";

@@ -64,7 +64,7 @@ struct fit_options {
     // Relative piezo calibration uncertainty u (dimensionless, [0, 0.5)). z_true = z (1 ± u), so κ
     // carries a relative uncertainty u and φ_ap 2u, added in quadrature to the statistical error.
     double calibration_uncertainty = 0.0;
-    // Confidence level of the reported intervals ((0, 1), default 0.95).
+    // Confidence level of the reported intervals ([0.5, 0.9999], default 0.95).
     double confidence_level = 0.95;
     // Sliding-window profile φ_ap(z): window in points (>= 4; 0 = use window_m or the default
     // max(8, n_used/5)), or in length (m, > 0; used when window_points is 0).

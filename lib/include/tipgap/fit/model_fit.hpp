@@ -35,7 +35,7 @@ struct model_fit_options {
     // Starting gap offset (m); NaN: from a detected contact, else matched to the current with the
     // config's area.
     double initial_gap_offset_m = std::numeric_limits<double>::quiet_NaN();
-    double confidence_level = 0.95;      // (0, 1), for the t quantile of the reported intervals
+    double confidence_level = 0.95;      // [0.5, 0.9999], for the t quantile of the reported intervals
 
     void validate() const;
 };

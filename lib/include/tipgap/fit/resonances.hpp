@@ -40,7 +40,7 @@ namespace tipgap {
 struct resonance_options {
     double smoothing_half_width_V = 0.3;  // half width of the local-polynomial window (V), (0, 2]
     double min_modulation = 0.05;         // peak rise over its flanking minima, fraction of its height, [0, 1)
-    double confidence_level = 0.95;       // of the work-function interval, (0, 1)
+    double confidence_level = 0.95;       // of the work-function interval, [0.5, 0.9999]
     bool model_fit = true;                // false: peaks and formula only
     int max_model_traces = 10;            // model traces the fit may compute, [3, 50]
     int threads = 0;                      // workers for the model traces (0 = all cores)

@@ -2,8 +2,11 @@
 // Output directories that appear whole or not at all: everything is written into a temporary
 // sibling directory, which is renamed onto the target only when complete. A failed or killed run
 // leaves at most a hidden ".<name>.tmp-<pid>-<n>" directory, never a partial target.
+#include <memory>
 #include <string>
 #include <vector>
+
+#include "tipgap/core/interrupt.hpp"
 
 namespace tipgap {
 
@@ -24,9 +27,11 @@ public:
     const std::string& temporary_path() const { return tmp_; }
     std::string file(const std::string& name) const;
 
-    // Renames the temporary directory onto the target. An existing target is first renamed
-    // aside, then removed once the new one is in place; if the final rename fails the old target
-    // is put back. Throws tipgap::error (input).
+    // Puts the temporary directory in place of the target: an existing target is swapped with it
+    // in one step (renameat2 RENAME_EXCHANGE) and then removed, so that no instant exists without
+    // the output directory. Inside an output_transaction the swap happens at its commit. Stale
+    // temporaries of dead processes beside the target are removed when the run starts.
+    // Throws tipgap::error (input).
     void commit();
 
 private:
@@ -34,6 +39,7 @@ private:
     std::string target_;
     std::vector<std::string> replaceable_;
     std::string tmp_;
+    std::unique_ptr<registered_temporary> registration_;
     bool committed_ = false;
 };
 

@@ -134,6 +134,8 @@ std::string render_table(const std::vector<table_column_format>& columns,
 
 // JSON text of a document (two-space indent, newline at the end). sort_keys: every record in byte
 // order of its keys, as nlohmann::json writes them.
+// Text that is not valid UTF-8 (a file name or label in another encoding) is written with U+FFFD
+// for each bad byte, and an object document then gets "invalid_utf8_replaced": true.
 std::string json_text(const cell& document, bool sort_keys = false);
 
 // A cell with the column's scaling applied to a number.

@@ -33,7 +33,8 @@ struct reference_row {
 // One row per sample material. c: configuration whose tip, barrier options and geometry are used;
 // samples: material names (tipgap::find_material; unknown names throw tipgap::error (input) listing
 // the known ones); empty: every material in the library. current_A, bias_V: the reference setpoint.
-// threads: workers (0 = all cores).
+// threads: workers (0 = all cores). Throws tipgap::error (no_answer) naming the samples when the
+// setpoint cannot be reached for any of them (a table of NaN would look like an answer).
 std::vector<reference_row> reference_table(const config& c, const std::vector<std::string>& samples,
                                            double current_A = reference_current_A,
                                            double bias_V = reference_bias_V, const plan_options& options = {},

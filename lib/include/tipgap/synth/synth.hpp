@@ -38,6 +38,11 @@ struct enum_names<synth_sweeps> {
                                                         {synth_sweeps::approach_retract, "approach_retract"}};
 };
 
+// Limits of synth_options::validate: the narrowest gap range (m), and the largest noise or
+// baseline current (A; an STM current amplifier saturates far below).
+constexpr double min_gap_span_m = 10e-12;
+constexpr double max_synth_current_A = 1e-3;
+
 struct synth_options {
     double bias_V = 0.1;                    // sample bias (V), non-zero, |V| <= model bias limit
     double gap_min_m = 0.45e-9;             // closest nominal gap (m), > 0

@@ -1,5 +1,7 @@
 #include "core/detail/parallel.hpp"
 
+#include "tipgap/core/progress.hpp"
+
 #include <algorithm>
 #include <atomic>
 #include <exception>
@@ -9,12 +11,36 @@
 
 namespace tipgap::detail {
 
+namespace {
+// The outermost parallel_for of a run reports its progress (core/progress.hpp); nested ones, on
+// worker threads, would make the line jump between loops.
+std::atomic<bool> reporting{false};
+
+struct reporter {
+    bool owner = !reporting.exchange(true);
+    std::size_t n;
+    std::atomic<std::size_t> done{0};
+    void tick() {
+        if (owner) report_progress(done.fetch_add(1) + 1, n);
+    }
+    ~reporter() {
+        if (!owner) return;
+        report_progress(0, 0);
+        reporting = false;
+    }
+};
+}  // namespace
+
 void parallel_for(std::size_t n, int threads, const std::function<void(std::size_t)>& f) {
+    reporter progress{.n = n};
     unsigned hw = std::max(1u, std::thread::hardware_concurrency());
     std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : hw;
     workers = std::min(workers, n);
     if (workers <= 1) {
-        for (std::size_t i = 0; i < n; ++i) f(i);
+        for (std::size_t i = 0; i < n; ++i) {
+            f(i);
+            progress.tick();
+        }
         return;
     }
     std::atomic<std::size_t> next{0};
@@ -26,6 +52,7 @@ void parallel_for(std::size_t n, int threads, const std::function<void(std::size
             if (i >= n) return;
             try {
                 f(i);
+                progress.tick();
             } catch (...) {
                 std::lock_guard<std::mutex> lock(m);
                 if (!failure) failure = std::current_exception();

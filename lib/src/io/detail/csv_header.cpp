@@ -5,6 +5,8 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "tipgap/core/limits.hpp"
+
 namespace tipgap::detail {
 
 bool iequals(std::string_view a, std::string_view b) {
@@ -63,6 +65,24 @@ bool same_column_spec(std::string_view a, std::string_view b) {
     return iequals(na, nb);
 }
 
+namespace {
+
+bool is_known_metadata_key(std::string_view key) {
+    for (std::string_view k : {"bias", "temperature", "setpoint_current", "x", "y", "sample", "tip"})
+        if (key == k) return true;
+    return false;
+}
+
+// A metadata number passes the same kind of range check as the config's value (model.cpp): a
+// file's "# bias: 1e300 V" is refused, not carried into a fit as inf.
+double metadata_value(const std::string& text, dimension d, const location& where, double max_abs, const char* expected) {
+    const double v = parse_quantity(text, d, where);
+    if (!at_most(std::abs(v), max_abs)) throw_input(where, fmt::format("{} is out of range; expected {}", quote_input(text), expected));
+    return v;
+}
+
+}  // namespace
+
 void parse_metadata_line(std::string_view line, int line_number, const std::string& file, curve_metadata& meta,
                          bool decimal_comma) {
     std::string_view body = trim_cell(line.substr(line.find('#') + 1));
@@ -71,10 +91,13 @@ void parse_metadata_line(std::string_view line, int line_number, const std::stri
     std::string_view key = trim_cell(body.substr(0, colon));
     std::string_view value = trim_cell(body.substr(colon + 1));
     if (key.empty()) return;
-    meta.entries.emplace_back(std::string(key), std::string(value));
     // Column of the value, for messages about a bad value of a known key.
     int value_column = static_cast<int>(value.data() - line.data()) + 1;
     location where{file, line_number, value_column, std::string(key)};
+    if (is_known_metadata_key(key) && meta.find(key) != nullptr)
+        throw_input(where, "the key is given twice in the metadata; expected each of bias, temperature, setpoint_current, x, "
+                           "y, sample and tip at most once");
+    meta.entries.emplace_back(std::string(key), std::string(value));
     // A file written with decimal commas writes its metadata so too: "0,1 V".
     std::string number(value);
     if (decimal_comma && number.find('.') == std::string::npos && number.find(',') == number.rfind(',') &&
@@ -82,15 +105,16 @@ void parse_metadata_line(std::string_view line, int line_number, const std::stri
         number[number.find(',')] = '.';
     }
     if (key == "bias") {
-        meta.bias_V = parse_quantity(number, dimension::voltage, where);
+        meta.bias_V = metadata_value(number, dimension::voltage, where, 100.0, "a bias within ±100 V");
     } else if (key == "temperature") {
-        meta.temperature_K = parse_quantity(number, dimension::temperature, where);
+        meta.temperature_K = metadata_value(number, dimension::temperature, where, 2000.0, "a temperature in [0, 2000] K");
+        if (*meta.temperature_K < 0) throw_input(where, "a temperature below 0 K; expected a temperature in [0, 2000] K");
     } else if (key == "setpoint_current") {
-        meta.setpoint_current_A = parse_quantity(number, dimension::current, where);
+        meta.setpoint_current_A = metadata_value(number, dimension::current, where, 1e-3, "a current within ±1 mA");
     } else if (key == "x") {
-        meta.x_m = parse_quantity(number, dimension::length, where);
+        meta.x_m = metadata_value(number, dimension::length, where, 1e-3, "a position within ±1 mm");
     } else if (key == "y") {
-        meta.y_m = parse_quantity(number, dimension::length, where);
+        meta.y_m = metadata_value(number, dimension::length, where, 1e-3, "a position within ±1 mm");
     } else if (key == "sample") {
         meta.sample = std::string(value);
     } else if (key == "tip") {
