@@ -31,6 +31,7 @@ struct map_args {
     std::string output_dir;
     int threads = 0;
     bool quiet = false;
+    bool no_figures = false;
     fit_flags flags;
     read_flags read;
     double min_decades = 1.0;
@@ -78,7 +79,7 @@ std::string default_output_dir(const std::string& grid) {
 }
 
 // The matrices, the quality codes and the figures, each file atomically.
-void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure) {
+void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure, bool figures) {
     const scaling to_eV = times(1.0 / si::electron_volt);
     write_file_atomically(dir.file("apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "apparent barrier height [eV]", m.apparent_barrier_J, to_eV));
@@ -87,6 +88,7 @@ void write_maps(const barrier_map& m, const atomic_directory& dir, const map_fig
     write_file_atomically(dir.file("stderr_apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "standard error of the apparent barrier height [eV]", m.apparent_barrier_stderr_J, to_eV));
     write_file_atomically(dir.file("quality.csv"), map_quality_csv(m));
+    if (!figures) return;
     plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
     plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
     plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
@@ -134,7 +136,7 @@ void run(const map_args& a) {
     print_warnings(m.grid.warnings, m.grid.path);
     print_notes(m.grid.notes, m.grid.path);
     const auto t1 = std::chrono::steady_clock::now();
-    write_maps(m, dir, figure);
+    write_maps(m, dir, figure, !a.no_figures);
     const auto t2 = std::chrono::steady_clock::now();
     const map_run run{"tipgap map", TIPGAP_VERSION, resolved_threads(o.read), std::chrono::duration<double>(t2 - t1).count(),
                       std::chrono::duration<double>(t2 - t0).count()};
@@ -158,6 +160,7 @@ command map_command() {
          &a->output_dir, "DIR"},
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
+        {"--no-figures", "Write the matrices and summary.json only, not the four PNG figures (faster)", &a->no_figures},
     };
     for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);
