@@ -4,6 +4,7 @@
 #include <chrono>
 #include <cstdio>
 #include <filesystem>
+#include <future>
 #include <fmt/format.h>
 #include <memory>
 #include <string>
@@ -78,8 +79,8 @@ std::string default_output_dir(const std::string& grid) {
     return p.string() + "_map";
 }
 
-// The matrices, the quality codes and the figures, each file atomically.
-void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure, bool figures) {
+// The matrices and the quality codes, each file atomically.
+void write_matrices(const barrier_map& m, const atomic_directory& dir) {
     const scaling to_eV = times(1.0 / si::electron_volt);
     write_file_atomically(dir.file("apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "apparent barrier height [eV]", m.apparent_barrier_J, to_eV));
@@ -88,11 +89,19 @@ void write_maps(const barrier_map& m, const atomic_directory& dir, const map_fig
     write_file_atomically(dir.file("stderr_apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "standard error of the apparent barrier height [eV]", m.apparent_barrier_stderr_J, to_eV));
     write_file_atomically(dir.file("quality.csv"), map_quality_csv(m));
-    if (!figures) return;
-    plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
-    plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
-    plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
-    plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
+}
+
+// The matrices on a second thread (formatting and fsync waits) while this one draws the figures;
+// PLplot is used from this thread only.
+void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure, bool figures) {
+    auto matrices = std::async(std::launch::async, [&] { write_matrices(m, dir); });
+    if (figures) {
+        plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
+        plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
+        plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
+        plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
+    }
+    matrices.get();
 }
 
 void print_summary(const barrier_map& m, const std::string& out_dir) {

@@ -106,12 +106,14 @@ def vectorised(grid, out):
 
 
 def timed(cmd):
-    """Runs cmd; returns (wall s, peak RSS MB, user s, sys s, stdout), wall from perf_counter and the
-    rest from wait4's rusage (finer than /usr/bin/time's 10 ms)."""
+    """Runs cmd; returns (wall s, peak RSS MB, user s, sys s, stdout): wall from perf_counter, CPU
+    from wait4's rusage (finer than /usr/bin/time's 10 ms), peak RSS from /usr/bin/time (wait4's
+    would include this Python process's memory, which a forked child inherits until exec)."""
     import tempfile
-    with tempfile.TemporaryFile() as out, tempfile.TemporaryFile() as err:
+    with tempfile.TemporaryFile() as out, tempfile.TemporaryFile() as err, \
+            tempfile.NamedTemporaryFile(mode="r") as rss:
         t0 = time.perf_counter()
-        p = subprocess.Popen(cmd, stdout=out, stderr=err)
+        p = subprocess.Popen(["/usr/bin/time", "-f", "%M", "-o", rss.name] + cmd, stdout=out, stderr=err)
         _, status, ru = os.wait4(p.pid, 0)
         wall = time.perf_counter() - t0
         p.returncode = os.waitstatus_to_exitcode(status)
@@ -119,7 +121,7 @@ def timed(cmd):
         err.seek(0)
         if p.returncode != 0:
             sys.exit(f"failed: {' '.join(cmd)}\n{err.read().decode()}")
-        return wall, ru.ru_maxrss / 1024.0, ru.ru_utime, ru.ru_stime, out.read().decode()
+        return wall, int(rss.read().split()[-1]) / 1024.0, ru.ru_utime, ru.ru_stime, out.read().decode()
 
 
 def run_child(mode, grid, out_npy):
