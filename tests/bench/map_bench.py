@@ -5,12 +5,13 @@ Run by hand (not by ctest), from the source tree after a Release build (targets 
 map_read_fit_bench):
     /usr/bin/python3 tests/bench/map_bench.py [--tipgap build/cli/tipgap]
         [--bench build/tests/bench/map_read_fit_bench] [--workdir /tmp/tipgap_map_bench] [--repeat 5]
-        [--no-polyfit] [--no-scaling]
+        [--reference OLD-tipgap] [--reference-bench OLD-map_read_fit_bench] [--no-polyfit] [--no-scaling]
 
 1. Makes a seeded grid with `tipgap synth --grid 128x128 --pitch 1nm --points-per-curve 128
    --pattern disc --noise 1pA --seed 7` (synthetic, 44 MB) and reads it once into the page cache.
-2. Whole command: `tipgap map GRID --threads 2 --quiet` (all outputs, figures included) and the same
-   with --no-figures, under /usr/bin/time -v: wall, CPU (user + sys), MB/s.
+2. Whole command: `tipgap map GRID --threads 2 --quiet` (all outputs, figures included), alternating
+   with an older executable when --reference is given, and with --no-figures: wall, CPU (user + sys),
+   MB/s.
 3. Read + fit alone: map_read_fit_bench (Google Benchmark; make_barrier_map without output files,
    and read_grid with an empty visitor), 1 and 2 threads, wall MB/s and CPU per run.
 4. NumPy, vectorised: numpy.loadtxt, then the same noise-floor selection and the two weighted
@@ -169,6 +170,8 @@ def main():
     ap.add_argument("--bench", default=os.path.join(HERE, "..", "..", "build", "tests", "bench", "map_read_fit_bench"))
     ap.add_argument("--workdir", default="/tmp/tipgap_map_bench")
     ap.add_argument("--repeat", type=int, default=5)
+    ap.add_argument("--reference", help="an older tipgap executable, timed alternately on the whole command")
+    ap.add_argument("--reference-bench", help="map_read_fit_bench built from the older sources")
     ap.add_argument("--no-polyfit", action="store_true")
     ap.add_argument("--no-scaling", action="store_true")
     a = ap.parse_args()
@@ -184,9 +187,17 @@ def main():
     def show(name, wall, cpu, where):
         print(f"  {name:<44} wall {wall * 1e3:7.1f} ms  {mb / wall:6.0f} MB/s   CPU {cpu * 1e3:7.1f} ms   [{where}]")
 
-    runs = [run_map(exe, grid, os.path.join(a.workdir, "map"), 2) for _ in range(a.repeat)]
+    runs, ref_runs = [], []
+    for _ in range(a.repeat):  # alternating with the reference executable, if given
+        runs.append(run_map(exe, grid, os.path.join(a.workdir, "map"), 2))
+        if a.reference:
+            ref_runs.append(run_map(os.path.abspath(a.reference), grid, os.path.join(a.workdir, "map_ref"), 2))
     whole = best_of(runs)
     show("tipgap map --threads 2 (whole command)", whole["wall"], whole["cpu"], whole["load"])
+    if ref_runs:
+        ref = best_of(ref_runs)
+        show("reference executable, same command", ref["wall"], ref["cpu"], ref["load"])
+        print(f"    new / reference: {ref['wall'] / whole['wall']:.2f}x faster wall, {ref['cpu'] / whole['cpu']:.2f}x less CPU")
     print(f"    median wall {statistics.median(r['wall'] for r in runs) * 1e3:.1f} ms; read+fit in summary.json "
           f"{whole['read_fit'] * 1e3:.1f} ms = {mb / whole['read_fit']:.0f} MB/s; peak RSS {whole['rss']:.0f} MB")
     nofig = best_of([run_map(exe, grid, os.path.join(a.workdir, "map_nofig"), 2, ["--no-figures"])
@@ -194,14 +205,16 @@ def main():
     show("tipgap map --threads 2 --no-figures", nofig["wall"], nofig["cpu"], nofig["load"])
 
     if os.path.exists(a.bench):
-        rf = read_fit_bench(a.bench, grid, a.repeat)
-        where = load()
-        for name, label in [("read_and_fit/1/real_time", "read + fit alone, 1 thread"),
-                            ("read_and_fit/2/real_time", "read + fit alone, 2 threads"),
-                            ("read_only/1/real_time", "read alone (parse), 1 thread"),
-                            ("read_only/2/real_time", "read alone (parse), 2 threads")]:
-            if name in rf:
-                show(label, rf[name][0], rf[name][1], where)
+        benches = [("", a.bench)] + ([("reference: ", a.reference_bench)] if a.reference_bench else [])
+        for prefix, bench in benches:
+            rf = read_fit_bench(bench, grid, a.repeat)
+            where = load()
+            for name, label in [("read_and_fit/1/real_time", "read + fit alone, 1 thread"),
+                                ("read_and_fit/2/real_time", "read + fit alone, 2 threads"),
+                                ("read_only/1/real_time", "read alone (parse), 1 thread"),
+                                ("read_only/2/real_time", "read alone (parse), 2 threads")]:
+                if name in rf:
+                    show(prefix + label, rf[name][0], rf[name][1], where)
     else:
         print(f"  ({a.bench} not built: no read + fit benchmark)")
 
