@@ -22,7 +22,7 @@ SAN_EXCLUDE ?= ^scipy\.|^cli\.install_consumer$$
 JOBS ?= $(shell nproc)
 DEMO_OUT ?= tipgap-demo
 DEBIAN_PACKAGES = cmake g++ make pkg-config libboost-math-dev libeigen3-dev libyaml-cpp-dev \
-  libgtest-dev libgmock-dev libcli11-dev libfmt-dev nlohmann-json3-dev libplplot-dev plplot-driver-cairo \
+  libgtest-dev libgmock-dev libcli11-dev libfmt-dev nlohmann-json3-dev libplplot-dev plplot-driver-cairo zlib1g-dev \
   libbenchmark-dev python3 python3-numpy python3-scipy clang libclang-rt-14-dev time \
   pybind11-dev python3-dev python3-pytest
 

@@ -4,6 +4,7 @@
 #include <chrono>
 #include <cstdio>
 #include <filesystem>
+#include <future>
 #include <fmt/format.h>
 #include <memory>
 #include <string>
@@ -32,6 +33,7 @@ struct map_args {
     std::string output_dir;
     int threads = 0;
     bool quiet = false;
+    bool no_figures = false;
     fit_flags flags;
     read_flags read;
     double min_decades = 1.0;
@@ -58,8 +60,8 @@ std::string default_output_dir(const std::string& grid) {
     return p.string() + "_map";
 }
 
-// The matrices, the quality codes and the figures, each file atomically.
-void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure) {
+// The matrices and the quality codes, each file atomically.
+void write_matrices(const barrier_map& m, const atomic_directory& dir) {
     const scaling to_eV = times(1.0 / si::electron_volt);
     write_file_atomically(dir.file("apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "apparent barrier height [eV]", m.apparent_barrier_J, to_eV));
@@ -68,10 +70,19 @@ void write_maps(const barrier_map& m, const atomic_directory& dir, const map_fig
     write_file_atomically(dir.file("stderr_apparent_barrier_eV.csv"),
                           map_matrix_csv(m, "standard error of the apparent barrier height [eV]", m.apparent_barrier_stderr_J, to_eV));
     write_file_atomically(dir.file("quality.csv"), map_quality_csv(m));
-    plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
-    plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
-    plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
-    plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
+}
+
+// The matrices on a second thread (formatting and fsync waits) while this one draws the figures;
+// PLplot is used from this thread only.
+void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure, bool figures) {
+    auto matrices = std::async(std::launch::async, [&] { write_matrices(m, dir); });
+    if (figures) {
+        plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
+        plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
+        plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
+        plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
+    }
+    matrices.get();
 }
 
 void print_summary(const barrier_map& m, const std::string& out_dir) {
@@ -108,7 +119,7 @@ void run(const map_args& a) {
     print_notes(m.grid.notes, m.grid.path);
     require_fitted_pixel(m);
     const auto t1 = std::chrono::steady_clock::now();
-    write_maps(m, dir, figure);
+    write_maps(m, dir, figure, !a.no_figures);
     const auto t2 = std::chrono::steady_clock::now();
     const map_run run{"tipgap map", TIPGAP_VERSION, resolved_threads(o.read), std::chrono::duration<double>(t2 - t1).count(),
                       std::chrono::duration<double>(t2 - t0).count()};
@@ -132,6 +143,7 @@ command map_command() {
          &a->output_dir, "DIR"},
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
+        {"--no-figures", "Write the matrices and summary.json only, not the four PNG figures (faster)", &a->no_figures},
     };
     for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);

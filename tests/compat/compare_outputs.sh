@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Behaviour check for refactors: runs the same commands with two tipgap executables (OLD and NEW)
 # on configs/ and demo_scans/ and compares, byte for byte, what each writes: standard output,
-# standard error, the exit code, and every file it creates (tables, CSV, JSON, YAML, PNG/SVG).
+# standard error, the exit code, and every file it creates (tables, CSV, JSON, YAML, SVG; PNG files by
+# their decoded pixels).
 #   tests/compat/compare_outputs.sh OLD_EXE NEW_EXE
 # Timings ("in 1.9 s", JSON keys ending in _s or _per_s) are blanked before the comparison.
 # Prints one line per command and "N passed, N failed" at the end; exit 1 on any difference.
@@ -68,7 +69,10 @@ for i in "${!cmds[@]}"; do
   run_one "$old" "$work/old" "$c"
   run_one "$new" "$work/new" "$c"
   for d in old new; do (cd "$work/$d" && mv stdout "stdout.$i" && mv stderr "stderr.$i" && mv rc "rc.$i"); done
-  if diff -r -q "$work/old" "$work/new" >"$work/diff.txt" 2>&1; then
+  # PNG files are compared by their decoded pixels (png_pixels.py), not by their compression.
+  rm -rf "$work/cmp"; mkdir -p "$work/cmp"; cp -r "$work/old" "$work/new" "$work/cmp/"
+  /usr/bin/python3 "$src/tests/compat/png_pixels.py" "$work/cmp"
+  if diff -r -q "$work/cmp/old" "$work/cmp/new" >"$work/diff.txt" 2>&1; then
     pass=$((pass + 1)); echo "same      $c"
   else
     fail=$((fail + 1)); echo "DIFFERENT $c"; sed 's/^/    /' "$work/diff.txt" | head -5

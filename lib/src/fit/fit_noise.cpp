@@ -24,6 +24,25 @@ double median_in_place(std::span<double> v) {
 
 double median(std::vector<double> v) { return median_in_place(v); }
 
+median_mad median_and_mad(std::span<double> v) {
+    std::sort(v.begin(), v.end());
+    const std::size_t n = v.size();
+    const std::size_t half = n / 2;
+    // As median_in_place: the upper middle value, averaged with the lower one for even n.
+    const double m = n % 2 == 1 ? v[half] : 0.5 * (v[half] + v[half - 1]);
+    // Deviations grow leftwards from j - 1 and rightwards from j; take them in order up to the
+    // (half)-th smallest (0-based), remembering the one before for even n.
+    std::size_t j = static_cast<std::size_t>(std::upper_bound(v.begin(), v.end(), m) - v.begin());
+    std::size_t left = j, right = j;  // next: v[left - 1] on the left, v[right] on the right
+    double previous = 0.0, current = 0.0;
+    for (std::size_t k = 0; k <= half; ++k) {
+        const bool take_left = left > 0 && (right == n || std::abs(v[left - 1] - m) <= std::abs(v[right] - m));
+        previous = current;
+        current = take_left ? std::abs(v[--left] - m) : std::abs(v[right++] - m);
+    }
+    return {m, n % 2 == 1 ? current : 0.5 * (current + previous)};
+}
+
 double mad(const std::vector<double>& v) {
     const double m = median(v);
     std::vector<double> d(v.size());
@@ -84,20 +103,17 @@ noise_estimate detail::noise_from_far_first(std::span<const double> far_first, s
     tail_n = std::min(tail_n, n);
     const std::span<const double> tail = far_first.first(tail_n);
 
-    // scratch holds the first differences, then the tail, then its deviations (no allocation
-    // once it has grown to the tail length).
+    // scratch holds the first differences, then the tail, each sorted in place by median_and_mad
+    // (no allocation once it has grown to the tail length).
     scratch.resize(tail_n);
     std::span<double> buf(scratch);
     for (std::size_t k = 1; k < tail_n; ++k) buf[k - 1] = tail[k] - tail[k - 1];
-    std::span<double> diffs = buf.first(tail_n - 1);
-    const double m_diff = median_in_place(diffs);
-    for (double& d : diffs) d = std::abs(d - m_diff);
     noise_estimate est;
-    est.current_noise_A = mad_to_sigma * median_in_place(diffs) / std::sqrt(2.0);
+    est.current_noise_A = mad_to_sigma * median_and_mad(buf.first(tail_n - 1)).mad / std::sqrt(2.0);
     std::copy(tail.begin(), tail.end(), buf.begin());
-    est.tail_offset_A = median_in_place(buf);
-    for (double& d : buf) d = std::abs(d - est.tail_offset_A);
-    const double tail_spread = mad_to_sigma * median_in_place(buf);
+    const median_mad t = median_and_mad(buf);
+    est.tail_offset_A = t.median;
+    const double tail_spread = mad_to_sigma * t.mad;
     est.floor_reached = tail_spread < flat_tail_ratio * est.current_noise_A;
     est.noise_floor_A = floor_sigmas * est.current_noise_A + (est.floor_reached ? std::abs(est.tail_offset_A) : 0.0);
     return est;

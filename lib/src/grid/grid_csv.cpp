@@ -30,6 +30,7 @@
 #include "io/detail/csv_errors.hpp"
 #include "io/detail/csv_header.hpp"
 #include "io/detail/csv_scan.hpp"
+#include "grid/detail/fast_rows.hpp"
 #include "grid/detail/grid_internal.hpp"
 #include "tipgap/core/units.hpp"
 #include "tipgap/io/orientation.hpp"
@@ -223,7 +224,8 @@ inline const char* scan_text_cell(const char* p, const char* end, role r, const 
 
 class chunk_parser {
 public:
-    chunk_parser(const csv_columns& cols, const pixel_sink& sink) : cols_(cols), file_(sink.file), sink_(sink) {}
+    chunk_parser(const csv_columns& cols, const pixel_sink& sink)
+        : cols_(cols), file_(sink.file), sink_(sink), plain_(plain_layout(cols)) {}
 
     // Parses the whole lines [begin, end) (the first is line first_line), visits the pixels wholly
     // inside and returns the first and last in `out` (they may continue in the next chunks).
@@ -237,6 +239,12 @@ public:
         while (p < end) {
             ++line;
             const char* const line_start = p;
+            plain_row fast;  // most rows of a plain file: one pass (fast_rows.hpp)
+            if (plain_ && (p = scan_plain_row(line_start, end, run.prev_x, run.prev_y, fast))) {
+                add_row(grid_row{fast.x_text, fast.y_text, fast.z, fast.current}, line_start, line, slot, run, buf, out);
+                continue;
+            }
+            p = line_start;
             if (const char* next = skip_blank_or_comment(p, end)) {
                 p = next;
                 continue;
@@ -251,6 +259,12 @@ public:
     }
 
 private:
+    // Comma-delimited x, y, z, current in this order: rows may take the fast path.
+    static bool plain_layout(const csv_columns& cols) {
+        return fast_rows_enabled().load() && cols.dialect.delimiter == ',' && !cols.dialect.decimal_comma &&
+               cols.roles == std::vector<role>{role::x, role::y, role::z, role::current};
+    }
+
     // The cells of the data row at p; returns the position of its line feed (or end).
     const char* scan_row(const char* p, const char* end, const char* line_start, std::int64_t line, const run_state& run,
                          grid_row& row) const {
@@ -382,6 +396,7 @@ private:
     const csv_columns& cols_;
     const std::string& file_;
     const pixel_sink& sink_;
+    const bool plain_;
 };
 
 class file_handle {

@@ -15,6 +15,14 @@ double median(std::vector<double> v);
 double median_in_place(std::span<double> v);
 // Median absolute deviation about the median (n >= 1).
 double mad(const std::vector<double>& v);
+// The median of v and the median of |v - median|, bit for bit those of median_in_place applied
+// twice, from one sort of v (in place, n >= 1): the deviations of the sorted values below and above
+// the median are each ordered, so their median is found by merging the two runs.
+struct median_mad {
+    double median;
+    double mad;  // unscaled
+};
+median_mad median_and_mad(std::span<double> v);
 
 // Noise estimate from the far tail of a sweep given farthest point first (see estimate_noise).
 // current_far_first: the sweep's currents ordered by decreasing z, n >= 3; scratch: reused buffer.
