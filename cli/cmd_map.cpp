@@ -100,8 +100,9 @@ void print_summary(const barrier_map& m, const std::string& out_dir) {
         counts += fmt::format("{}{} {}", q ? ", " : "", to_string(static_cast<pixel_quality>(q)), m.quality_counts[q]);
     fmt::print("tipgap map: {} x {} pixels, {} samples -> {}\n", m.nx, m.ny, m.grid.samples, out_dir);
     if (m.barrier.count > 0) {
-        fmt::print("  apparent barrier: median {:.3f} eV, mean {:.3f} eV, spread {:.3f} eV ({} pixels with a value)\n",
-                   m.barrier.median * to_eV, m.barrier.mean * to_eV, m.barrier.robust_spread * to_eV, m.barrier.count);
+        fmt::print("  apparent barrier: {} eV (median ± MAD-based σ), {} eV (mean ± standard deviation), {} pixels with a value\n",
+                   with_uncertainty(m.barrier.median * to_eV, m.barrier.robust_spread * to_eV),
+                   with_uncertainty(m.barrier.mean * to_eV, m.barrier.standard_deviation * to_eV), m.barrier.count);
     } else {
         fmt::print("  apparent barrier: no pixel has a value\n");
     }

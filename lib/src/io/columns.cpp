@@ -82,6 +82,50 @@ std::string significant(double v, int digits) {
     return fmt::format("{:.{}e}", v, digits - 1);
 }
 
+std::string with_uncertainty(double v, double u) {
+    if (!(std::isfinite(u) && u > 0) || !std::isfinite(v)) {
+        std::string s = significant(v, 4);
+        return u == 0.0 ? s + " ± 0" : s;
+    }
+    // The place of the second significant digit of u, after rounding u to two digits (9.96 -> 10).
+    int e = static_cast<int>(std::floor(std::log10(u)));
+    if (std::round(u / std::pow(10.0, e - 1)) >= 100) ++e;
+    const int place = e - 1;  // u and v are rounded to 10^place
+    const double unit = std::pow(10.0, place);
+    const double ur = std::round(u / unit) * unit, vr = std::round(v / unit) * unit;
+    const double largest = std::max(std::abs(vr), ur);
+    if (place >= -6 && largest < 1e7) return fmt::format("{:.{}f} ± {:.{}f}", vr, std::max(0, -place), ur, std::max(0, -place));
+    // Very small or large: a shared power of ten.
+    const int p = static_cast<int>(std::floor(std::log10(largest)));
+    const double scale = std::pow(10.0, p);
+    const int decimals = std::max(0, p - place);
+    return fmt::format("({:.{}f} ± {:.{}f})e{:+03d}", vr / scale, decimals, ur / scale, decimals, p);
+}
+
+std::string interval_text(double lo, double hi) {
+    if (!(std::isfinite(lo) && std::isfinite(hi))) return significant(lo, 4) + " – " + significant(hi, 4);
+    const double half = 0.5 * std::abs(hi - lo);
+    if (!(half > 0)) return significant(lo, 4) + " – " + significant(hi, 4);
+    const double mid = 0.5 * (lo + hi);
+    // The decimals with_uncertainty gives the midpoint and the half width.
+    const std::string s = with_uncertainty(mid, half);
+    if (s.front() == '(') return significant(lo, 4) + " – " + significant(hi, 4);
+    const std::size_t dot = s.find('.'), pm = s.find(" ±");
+    const int decimals = dot != std::string::npos && dot < pm ? static_cast<int>(pm - dot - 1) : 0;
+    return fmt::format("{:.{}f} – {:.{}f}", lo, decimals, hi, decimals);
+}
+
+std::pair<double, std::string> reading_prefix(double largest) {
+    static const std::pair<double, const char*> prefixes[] = {{1e-15, "f"}, {1e-12, "p"}, {1e-9, "n"}, {1e-6, "µ"},
+                                                              {1e-3, "m"},  {1.0, ""},    {1e3, "k"},  {1e6, "M"},
+                                                              {1e9, "G"}};
+    if (!(std::isfinite(largest) && largest > 0)) return {1.0, ""};
+    std::pair<double, std::string> out{prefixes[0].first, prefixes[0].second};
+    for (const auto& [f, p] : prefixes)
+        if (largest >= f * (1 - 1e-12)) out = {f, p};
+    return out;
+}
+
 std::string csv_text(const cell& c) {
     return std::visit(
         [](const auto& v) -> std::string {
@@ -109,9 +153,10 @@ std::string table_text(const cell& c, const table_number& n, const std::string& 
             using V = std::decay_t<decltype(v)>;
             if constexpr (std::is_same_v<V, double>) {
                 const bool fix = n.style == number_style::fixed;
+                // With a spread: two significant digits of it, the value rounded to match.
+                if (!std::isnan(spread) && spread != 0.0) return with_uncertainty(v, spread);
                 std::string s = fix ? fixed_text(v, n.digits) : significant(v, n.digits);
-                // The spread to 2 significant digits, or to the value's decimals.
-                if (!std::isnan(spread)) s += " ± " + (fix ? fixed_text(spread, n.digits) : significant(spread, 2));
+                if (spread == 0.0) s += " ± 0";
                 return s;
             } else if constexpr (std::is_same_v<V, std::int64_t> || std::is_same_v<V, std::uint64_t>) {
                 return fmt::format("{}", v);
