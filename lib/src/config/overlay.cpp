@@ -53,6 +53,9 @@ void apply_overlay(config& c, const junction_overlay& o, const std::string& orig
         c.origin["method"] = origin;
     }
     c.model.validate();
+    const bool any = !o.tip_material.empty() || !o.sample_material.empty() || o.tip_work_function_J ||
+                     o.sample_work_function_J || o.temperature_K || o.image || o.method;
+    if (any) c.source += " + " + origin;
 }
 
 std::string config_yaml(const config& c) {

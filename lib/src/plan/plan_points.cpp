@@ -1,4 +1,5 @@
 // One planned setpoint with its instrument-facing quantities, and many setpoints in parallel.
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 #include <limits>
@@ -97,9 +98,11 @@ std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::p
                                        const plan_options& o, int threads) {
     o.validate();
     std::vector<plan_point> out(setpoints.size());
+    // Only zero biases: the request itself is wrong (solve_gap says why); else 0 V points are kept.
+    const bool some_nonzero = std::any_of(setpoints.begin(), setpoints.end(), [](const auto& p) { return p.second != 0.0; });
     detail::parallel_for(setpoints.size(), threads, [&](std::size_t i) {
         const auto [I, V] = setpoints[i];
-        out[i] = V == 0.0 && std::isfinite(I) && I != 0 ? zero_bias_point(I) : plan_setpoint(c, I, V, o);
+        out[i] = V == 0.0 && some_nonzero && std::isfinite(I) && I != 0 ? zero_bias_point(I) : plan_setpoint(c, I, V, o);
     });
     std::size_t reachable = 0;
     for (const auto& p : out) reachable += p.reachable();

@@ -25,6 +25,7 @@ struct config {
     model_options model;
     geometry_options geometry;
     input_uncertainties sigma;
+    // source: "FILE" or "<default>", followed by " + command line" after apply_overlay.
     // Where each value came from, by config key ("tip.work_function", "temperature", ...):
     // "built-in default", "FILE:LINE", or what apply_overlay was told ("command line").
     std::map<std::string, std::string> origin;
