@@ -85,7 +85,7 @@ std::vector<column<f>> slope_columns() {
         {"apparent_barrier_ci", "95% CI [eV]",
          [](const f& x) {
              const double eV = si::electron_volt;
-             return fmt::format("{:.2f} - {:.2f}", x.result.apparent_barrier_ci_low_J / eV, x.result.apparent_barrier_ci_high_J / eV);
+             return interval_text(x.result.apparent_barrier_ci_low_J / eV, x.result.apparent_barrier_ci_high_J / eV);
          },
          {}, {}, in_table, nullptr, "", 15},
         {"apparent_barrier_ci_low_eV", "", [](const f& x) { return x.result.apparent_barrier_ci_low_J; }, to_eV, {}, in_data},
