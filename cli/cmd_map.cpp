@@ -31,6 +31,7 @@ struct map_args {
     std::string output_dir;
     int threads = 0;
     bool quiet = false;
+    bool partial = false;
     fit_flags flags;
     read_flags read;
     double min_decades = 1.0;
@@ -107,6 +108,8 @@ void print_summary(const barrier_map& m, const std::string& out_dir) {
         fmt::print("  apparent barrier: no pixel has a value\n");
     }
     fmt::print("  quality: {}\n", counts);
+    if (m.grid.missing > 0)
+        fmt::print("  partial grid: {} of {} pixels missing (quality 'missing', NaN in the maps)\n", m.grid.missing, m.nx * m.ny);
 }
 
 void run(const map_args& a) {
@@ -116,6 +119,7 @@ void run(const map_args& a) {
     o.min_current_decades = a.min_decades;
     o.max_relative_stderr = a.max_relative_error;
     o.read.threads = a.threads;
+    o.read.partial = a.partial;
     o.read.reader = to_reader_options(a.read, "map", 4);
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
     const map_figure_options figure = to_map_figure_options(a.range);
@@ -159,6 +163,9 @@ command map_command() {
          &a->output_dir, "DIR"},
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
+        {"--partial", "Map an aborted acquisition: missing pixels get quality 'missing' and NaN, a last row or pixel "
+                      "cut short is left out or fitted as it is",
+         &a->partial},
     };
     for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);
