@@ -6,6 +6,7 @@
 #include "flags.hpp"
 #include "junction.hpp"
 #include "output.hpp"
+#include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/plan/reference_table.hpp"
@@ -21,21 +22,6 @@ struct table_args {
     junction_flags junction;
 };
 
-std::vector<std::string> split_names(const std::string& s) {
-    std::vector<std::string> out;
-    std::size_t start = 0;
-    while (start <= s.size() && !s.empty()) {
-        std::size_t comma = s.find(',', start);
-        std::string item = s.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
-        while (!item.empty() && item.front() == ' ') item.erase(item.begin());
-        while (!item.empty() && item.back() == ' ') item.pop_back();
-        if (!item.empty()) out.push_back(item);
-        if (comma == std::string::npos) break;
-        start = comma + 1;
-    }
-    return out;
-}
-
 std::string explanation(const config& c, double I, double V) {
     const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
     return fmt::format("# {} tip (φ_t = {:.3g} eV) · {} geometry · reference setpoint {:g} A at {:g} V\n"
@@ -49,8 +35,10 @@ void run(const table_args& a) {
     const config c = load_junction(a.junction);
     const double I = parse_quantity(a.current, dimension::current, location{"", 0, 0, "--current"});
     const double V = parse_quantity(a.bias, dimension::voltage, location{"", 0, 0, "--bias"});
+    const std::string& samples = a.samples.empty() ? a.junction.sample : a.samples;  // "" : every material
+    const std::vector<std::string> names = samples.empty() ? std::vector<std::string>{} : split_list(samples);
     const auto rows = naming_flags("table", flag_error::own_kind,
-                                   [&] { return reference_table(c, split_names(a.samples.empty() ? a.junction.sample : a.samples), I, V, {}, a.threads); });
+                                   [&] { return reference_table(c, names, I, V, {}, a.threads); });
     for (const auto& r : rows) print_warnings(r.warnings, r.sample);
 
     report_frame frame{.rows_key = "rows", .sort_keys = true, .before_table = explanation(c, I, V)};

@@ -53,6 +53,16 @@ std::vector<double> parse_range(std::string_view text, dimension d, int points, 
     return out;
 }
 
+std::vector<std::string> split_list(const std::string& text) {
+    std::vector<std::string> out;
+    for (std::size_t start = 0;;) {
+        const std::size_t comma = text.find(',', start);
+        out.push_back(text.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
+        if (comma == std::string::npos) return out;
+        start = comma + 1;
+    }
+}
+
 std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,
                                                  bool second_outer) {
     std::vector<std::pair<double, double>> out;

@@ -22,6 +22,9 @@ enum class spacing { linear, logarithmic };
 std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag,
                                 const std::string& step = "");
 
+// "Z,I" -> {"Z", "I"}: the items between commas, as written ("" -> {""}).
+std::vector<std::string> split_list(const std::string& text);
+
 // Every (first, second) pair, with `second` in the outer loop when second_outer.
 std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,
                                                  bool second_outer);
