@@ -103,8 +103,8 @@ struct column {
     std::string none = "";  // table text of a null or absent value
     int width = 0;          // table width for fixed layouts (0: as wide as the widest cell)
     bool left = false;      // left-aligned in the table
-    // Table only: the SI unit ("A", "Ω", "V", "m") of a column whose values (and spread) are SI
-    // (no scale). The table then picks a prefix for reading (pA, nA, µA; mV; pm, nm) from the
+    // Table only: the SI unit ("A", "Ω", "V", "m") of the getter's values (and of the spread). The
+    // table then ignores `scale`, picks a prefix for reading (pA, nA, µA; mV; pm, nm) from the
     // column's largest magnitude and labels it "<label> [<prefix><unit>]".
     std::string reading_unit = "";
 };
