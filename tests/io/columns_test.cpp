@@ -188,3 +188,14 @@ TEST(columns, no_nonzero_uncertainty_prints_as_zero_over_many_seeded_pairs) {
     }
     EXPECT_EQ(checked, 20000);
 }
+
+TEST(columns, reading_prefix_keeps_values_between_one_and_a_thousand) {
+    EXPECT_EQ(reading_prefix(1e-10), (std::pair<double, std::string>{1e-12, "p"}));
+    EXPECT_EQ(reading_prefix(1e-9), (std::pair<double, std::string>{1e-9, "n"}));
+    EXPECT_EQ(reading_prefix(3.0), (std::pair<double, std::string>{1.0, ""}));
+    EXPECT_EQ(reading_prefix(0.1), (std::pair<double, std::string>{1e-3, "m"}));
+    EXPECT_EQ(reading_prefix(2e9), (std::pair<double, std::string>{1e9, "G"}));
+    EXPECT_EQ(reading_prefix(8e-16), (std::pair<double, std::string>{1e-15, "f"}));
+    EXPECT_EQ(reading_prefix(8e-16, 1e-12), (std::pair<double, std::string>{1e-12, "p"}));  // lengths: 0.0008 pm
+    EXPECT_EQ(reading_prefix(0.0), (std::pair<double, std::string>{1.0, ""}));
+}

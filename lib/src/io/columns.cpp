@@ -115,14 +115,14 @@ std::string interval_text(double lo, double hi) {
     return fmt::format("{:.{}f} – {:.{}f}", lo, decimals, hi, decimals);
 }
 
-std::pair<double, std::string> reading_prefix(double largest) {
+std::pair<double, std::string> reading_prefix(double largest, double smallest) {
     static const std::pair<double, const char*> prefixes[] = {{1e-15, "f"}, {1e-12, "p"}, {1e-9, "n"}, {1e-6, "µ"},
                                                               {1e-3, "m"},  {1.0, ""},    {1e3, "k"},  {1e6, "M"},
                                                               {1e9, "G"}};
     if (!(std::isfinite(largest) && largest > 0)) return {1.0, ""};
-    std::pair<double, std::string> out{prefixes[0].first, prefixes[0].second};
+    std::pair<double, std::string> out{0.0, ""};
     for (const auto& [f, p] : prefixes)
-        if (largest >= f * (1 - 1e-12)) out = {f, p};
+        if (f >= smallest * (1 - 1e-12) && (out.first == 0.0 || largest >= f * (1 - 1e-12))) out = {f, p};
     return out;
 }
 

@@ -132,9 +132,10 @@ std::string with_uncertainty(double value, double sigma);
 // "lo – hi" of an interval, both ends to the decimal place of two significant digits of its half
 // width, so that the ends of a narrow interval differ ("4.398 – 4.427").
 std::string interval_text(double lo, double hi);
-// The factor (1e-12, 1e-9, ...) and prefix ("p", "n", "µ", "m", "", "k", "M", "G") that show
-// `largest` (>= 0) between 1 and 1000; 1 and "" for 0 or non-finite.
-std::pair<double, std::string> reading_prefix(double largest);
+// The factor (1e-12, 1e-9, ...) and prefix ("f", "p", "n", "µ", "m", "", "k", "M", "G") that show
+// `largest` (>= 0) between 1 and 1000, the factor at least `smallest` (1e-15; lengths 1e-12: no
+// femtometres at an STM); 1 and "" for 0 or non-finite.
+std::pair<double, std::string> reading_prefix(double largest, double smallest = 1e-15);
 // A CSV field quoted when it holds a comma, quote or line break (RFC 4180).
 std::string csv_quote(const std::string& s);
 
@@ -175,7 +176,7 @@ std::string format_table(const std::vector<column<T>>& columns, const Rows& rows
         for (const T& row : rows)
             if (const cell v = c.get(row); const double* x = std::get_if<double>(&v.value))
                 if (std::isfinite(*x)) largest = std::max(largest, std::abs(*x));
-        const auto [f, prefix] = reading_prefix(largest);
+        const auto [f, prefix] = reading_prefix(largest, c.reading_unit == "m" ? 1e-12 : 1e-15);
         head.push_back({c.label + " [" + prefix + c.reading_unit + "]", c.width, c.left});
         factor.push_back(f);
     }
