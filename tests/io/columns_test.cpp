@@ -199,3 +199,9 @@ TEST(columns, reading_prefix_keeps_values_between_one_and_a_thousand) {
     EXPECT_EQ(reading_prefix(8e-16, 1e-12), (std::pair<double, std::string>{1e-12, "p"}));  // lengths: 0.0008 pm
     EXPECT_EQ(reading_prefix(0.0), (std::pair<double, std::string>{1.0, ""}));
 }
+
+TEST(columns, a_narrow_interval_keeps_its_ends_apart) {
+    EXPECT_EQ(interval_text(4.4439995, 4.4440005), "4.44399950 – 4.44400050");
+    EXPECT_EQ(interval_text(-1.25, 2.5), "-1.2 – 2.5");
+    EXPECT_EQ(interval_text(120.0, 180.0), "120 – 180");
+}

@@ -82,15 +82,22 @@ std::string significant(double v, int digits) {
     return fmt::format("{:.{}e}", v, digits - 1);
 }
 
+namespace {
+// The power of ten of the second significant digit of u > 0 after rounding u to two digits
+// (0.0123 -> -3; 9.96 -> rounds to 10 -> 0).
+int second_digit_place(double u) {
+    int e = static_cast<int>(std::floor(std::log10(u)));
+    if (std::round(u / std::pow(10.0, e - 1)) >= 100) ++e;
+    return e - 1;
+}
+}  // namespace
+
 std::string with_uncertainty(double v, double u) {
     if (!(std::isfinite(u) && u > 0) || !std::isfinite(v)) {
         std::string s = significant(v, 4);
         return u == 0.0 ? s + " ± 0" : s;
     }
-    // The place of the second significant digit of u, after rounding u to two digits (9.96 -> 10).
-    int e = static_cast<int>(std::floor(std::log10(u)));
-    if (std::round(u / std::pow(10.0, e - 1)) >= 100) ++e;
-    const int place = e - 1;  // u and v are rounded to 10^place
+    const int place = second_digit_place(u);  // u and v are rounded to 10^place
     const double unit = std::pow(10.0, place);
     const double ur = std::round(u / unit) * unit, vr = std::round(v / unit) * unit;
     const double largest = std::max(std::abs(vr), ur);
@@ -103,15 +110,11 @@ std::string with_uncertainty(double v, double u) {
 }
 
 std::string interval_text(double lo, double hi) {
-    if (!(std::isfinite(lo) && std::isfinite(hi))) return significant(lo, 4) + " – " + significant(hi, 4);
     const double half = 0.5 * std::abs(hi - lo);
-    if (!(half > 0)) return significant(lo, 4) + " – " + significant(hi, 4);
-    const double mid = 0.5 * (lo + hi);
-    // The decimals with_uncertainty gives the midpoint and the half width.
-    const std::string s = with_uncertainty(mid, half);
-    if (s.front() == '(') return significant(lo, 4) + " – " + significant(hi, 4);
-    const std::size_t dot = s.find('.'), pm = s.find(" ±");
-    const int decimals = dot != std::string::npos && dot < pm ? static_cast<int>(pm - dot - 1) : 0;
+    if (!(std::isfinite(lo) && std::isfinite(hi) && half > 0) || std::max(std::abs(lo), std::abs(hi)) >= 1e7)
+        return significant(lo, 4) + " – " + significant(hi, 4);
+    // The ends to the place of two significant digits of the half width (at most 15 decimals).
+    const int decimals = std::clamp(-second_digit_place(half), 0, 15);
     return fmt::format("{:.{}f} – {:.{}f}", lo, decimals, hi, decimals);
 }
 
