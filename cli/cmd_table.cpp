@@ -35,7 +35,7 @@ void run(const table_args& a) {
     const config c = load_junction(a.junction);
     const double I = parse_quantity(a.current, dimension::current, location{"", 0, 0, "--current"});
     const double V = parse_quantity(a.bias, dimension::voltage, location{"", 0, 0, "--bias"});
-    const std::string& samples = a.samples.empty() ? a.junction.sample : a.samples;  // "" : every material
+    const std::string& samples = a.samples.empty() ? a.junction.text.sample : a.samples;  // "" : every material
     const std::vector<std::string> names = samples.empty() ? std::vector<std::string>{} : split_list(samples);
     const auto rows = naming_flags("table", flag_error::own_kind,
                                    [&] { return reference_table(c, names, I, V, {}, a.threads); });

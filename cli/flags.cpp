@@ -20,6 +20,8 @@ constexpr flag_name flag_names[] = {
     {"", "tip.work_function", "--tip-work-function"},
     {"", "sample.work_function", "--sample-work-function"},
     {"", "temperature", "--temperature"},
+    {"", "barrier.image_potential", "--image"},
+    {"", "method", "--method"},
     // uncertainty_options
     {"", "samples", "--mc-samples"},
     // fit_options (fit and map)

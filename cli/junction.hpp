@@ -12,7 +12,8 @@
 namespace tipgap::cli {
 
 struct junction_flags {
-    std::string config_path, tip, sample, tip_work_function, sample_work_function, temperature, image, method;
+    std::string config_path;
+    junction_text text;  // --tip, --sample, ... as given
     bool show = false;
 };
 

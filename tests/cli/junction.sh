@@ -52,7 +52,7 @@ cmp -s "$work/r.csv" "$work/o.csv" || fail "the shown config is not the same con
 "$TIPGAP" plan --current 1nA --bias 0.1V --temperature=-5K > /dev/null 2> "$work/e"; rc=$?
 [ $rc -eq 2 ] && grep -q "^tipgap: usage error: --temperature:" "$work/e" || { cat "$work/e"; fail "bad --temperature: $rc"; }
 "$TIPGAP" plan --current 1nA --bias 0.1V --method fast > /dev/null 2> "$work/e"; rc=$?
-[ $rc -eq 2 ] && grep -q "^tipgap: usage error: --method: 'fast' is not allowed; expected" "$work/e" || { cat "$work/e"; fail "bad --method"; }
+[ $rc -eq 2 ] && grep -q "^tipgap: usage error: --method: 'fast' is not a method; expected" "$work/e" || { cat "$work/e"; fail "bad --method"; }
 
 # 5. A -3..3 V trace of 61 points answers 60 and keeps 0 V (null gap, note, exit 0); --step gives
 #    the same biases; dz_nm is zero at the reference bias.

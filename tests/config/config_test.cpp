@@ -185,3 +185,29 @@ TEST(config, shown_yaml_reads_back_as_the_same_config_with_origins) {
     EXPECT_EQ(r.model.image, image_kind::none);
     EXPECT_EQ(r.geometry.kind, geometry_kind::paraboloid);
 }
+
+TEST(config, overlay_text_is_read_with_units_and_names_and_errors_name_the_key) {
+    junction_text t;
+    t.temperature = "300K";
+    t.tip_work_function = "4300 meV";
+    t.image = "none";
+    t.method = "exact";
+    const junction_overlay o = parse_overlay(t);
+    EXPECT_EQ(*o.temperature_K, 300.0);
+    EXPECT_NEAR(*o.tip_work_function_J / eV, 4.3, 1e-14);
+    EXPECT_EQ(*o.image, image_kind::none);
+    EXPECT_EQ(*o.method, method_kind::exact);
+    EXPECT_FALSE(o.sample_work_function_J.has_value());
+    auto key_of = [](junction_text bad) {
+        try {
+            parse_overlay(bad);
+        } catch (const error& e) {
+            return e.where().key;
+        }
+        return std::string("(no error)");
+    };
+    EXPECT_EQ(key_of({.temperature = "300 nm"}), "temperature");
+    EXPECT_EQ(key_of({.sample_work_function = "five"}), "sample.work_function");
+    EXPECT_EQ(key_of({.image = "mirror"}), "barrier.image_potential");
+    EXPECT_EQ(key_of({.method = "fast"}), "method");
+}

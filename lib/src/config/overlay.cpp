@@ -34,7 +34,33 @@ void overlay_electrode(config& c, const std::string& key, electrode& e, double& 
 // 15 significant digits: a value read from text ("5.53 eV") reads back as the same double.
 std::string number(double v) { return fmt::format("{:.15g}", v); }
 
+template <class E>
+std::optional<E> enum_value(const std::string& text, const char* key, const char* what) {
+    E e{};
+    if (text.empty()) return std::nullopt;
+    if (!from_string(text, e))
+        throw_input(location{"", 0, 0, key}, fmt::format("{} is not {}; expected {}", quote_input(text), what, accepted_names<E>()));
+    return e;
+}
+
+std::optional<double> quantity(const std::string& text, dimension d, const char* key) {
+    if (text.empty()) return std::nullopt;
+    return parse_quantity(text, d, location{"", 0, 0, key});
+}
+
 }  // namespace
+
+junction_overlay parse_overlay(const junction_text& t) {
+    junction_overlay o;
+    o.tip_material = t.tip;
+    o.sample_material = t.sample;
+    o.tip_work_function_J = quantity(t.tip_work_function, dimension::energy, "tip.work_function");
+    o.sample_work_function_J = quantity(t.sample_work_function, dimension::energy, "sample.work_function");
+    o.temperature_K = quantity(t.temperature, dimension::temperature, "temperature");
+    o.image = enum_value<image_kind>(t.image, "barrier.image_potential", "an image potential");
+    o.method = enum_value<method_kind>(t.method, "method", "a method");
+    return o;
+}
 
 void apply_overlay(config& c, const junction_overlay& o, const std::string& origin) {
     overlay_electrode(c, "tip", c.model.tip, c.sigma.tip_work_function_J, o.tip_material, o.tip_work_function_J, origin);

@@ -57,6 +57,14 @@ struct junction_overlay {
     std::optional<method_kind> method;
 };
 
+// The overlay of values given as text, "" for not given: materials by name or alias, energies and
+// the temperature with units ("4.3eV", "300K"), image potential and method by name. Errors name
+// the config key ("tip.work_function", "temperature", "barrier.image_potential", "method").
+struct junction_text {
+    std::string tip, sample, tip_work_function, sample_work_function, temperature, image, method;
+};
+junction_overlay parse_overlay(const junction_text& t);
+
 // Applies `o` to `c`, records `origin` for every key it sets, and validates the model (errors name
 // the config key: "tip.work_function", "temperature", "tip.material", ...).
 void apply_overlay(config& c, const junction_overlay& o, const std::string& origin);
