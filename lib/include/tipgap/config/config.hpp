@@ -61,7 +61,8 @@ struct junction_overlay {
 // the temperature with units ("4.3eV", "300K"), image potential and method by name. Errors name
 // the config key ("tip.work_function", "temperature", "barrier.image_potential", "method").
 struct junction_text {
-    std::string tip, sample, tip_work_function, sample_work_function, temperature, image, method;
+    std::string tip = "", sample = "", tip_work_function = "", sample_work_function = "", temperature = "", image = "",
+                method = "";
 };
 junction_overlay parse_overlay(const junction_text& t);
 
