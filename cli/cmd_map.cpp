@@ -34,6 +34,7 @@ struct map_args {
     int threads = 0;
     bool quiet = false;
     bool no_figures = false;
+    bool partial = false;
     fit_flags flags;
     read_flags read;
     double min_decades = 1.0;
@@ -92,12 +93,15 @@ void print_summary(const barrier_map& m, const std::string& out_dir) {
         counts += fmt::format("{}{} {}", q ? ", " : "", to_string(static_cast<pixel_quality>(q)), m.quality_counts[q]);
     fmt::print("tipgap map: {} x {} pixels, {} samples -> {}\n", m.nx, m.ny, m.grid.samples, out_dir);
     if (m.barrier.count > 0) {
-        fmt::print("  apparent barrier: median {:.3f} eV, mean {:.3f} eV, spread {:.3f} eV ({} pixels with a value)\n",
-                   m.barrier.median * to_eV, m.barrier.mean * to_eV, m.barrier.robust_spread * to_eV, m.barrier.count);
+        fmt::print("  apparent barrier: {} eV (median ± MAD-based σ), {} eV (mean ± standard deviation), {} pixels with a value\n",
+                   with_uncertainty(m.barrier.median * to_eV, m.barrier.robust_spread * to_eV),
+                   with_uncertainty(m.barrier.mean * to_eV, m.barrier.standard_deviation * to_eV), m.barrier.count);
     } else {
         fmt::print("  apparent barrier: no pixel has a value\n");
     }
     fmt::print("  quality: {}\n", counts);
+    if (m.grid.missing > 0)
+        fmt::print("  partial grid: {} of {} pixels missing (quality 'missing', NaN in the maps)\n", m.grid.missing, m.nx * m.ny);
 }
 
 void run(const map_args& a) {
@@ -107,6 +111,7 @@ void run(const map_args& a) {
     o.min_current_decades = a.min_decades;
     o.max_relative_stderr = a.max_relative_error;
     o.read.threads = a.threads;
+    o.read.partial = a.partial;
     o.read.reader = to_reader_options(a.read, "map", 4);
     naming_flags("map", flag_error::usage, [&] { o.validate(); });
     const map_figure_options figure = to_map_figure_options(a.range);
@@ -144,6 +149,9 @@ command map_command() {
         {"--threads", "Worker threads (default 0 = all cores); results do not depend on it", &a->threads, "N"},
         {"--quiet", "No progress bar and no summary on stdout", &a->quiet},
         {"--no-figures", "Write the matrices and summary.json only, not the four PNG figures (faster)", &a->no_figures},
+        {"--partial", "Map an aborted acquisition: missing pixels get quality 'missing' and NaN, a last row or pixel "
+                      "cut short is left out or fitted as it is",
+         &a->partial},
     };
     for (const flag& f : read_flag_list(a->read, true)) cmd.flags.push_back(f);
     for (const flag& f : fit_flag_list(a->flags, false)) cmd.flags.push_back(f);

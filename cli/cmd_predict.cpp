@@ -4,6 +4,7 @@
 
 #include "command.hpp"
 #include "flags.hpp"
+#include "junction.hpp"
 #include "output.hpp"
 #include "plot_flags.hpp"
 #include "ranges.hpp"
@@ -18,21 +19,22 @@ namespace tipgap::cli {
 namespace {
 
 struct predict_args {
-    std::string config_path, gap, bias, output, plot_path;
+    std::string gap, bias, step, output, plot_path;
     int points = 11;
     int threads = 0;
     output_format format = output_format::table;
     uncertainty_options uncertainty;
     plot_flags plot;
+    junction_flags junction;
 };
 
 void run(const predict_args& a) {
-    const config c = load_config_or_default(a.config_path);
+    const config c = load_junction(a.junction);
     if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
     const figure_options figure = to_figure_options(a.plot);
     a.uncertainty.validate();
     const auto gaps = parse_range(a.gap, dimension::length, a.points, spacing::linear, "--gap");
-    const auto biases = parse_range(a.bias, dimension::voltage, a.points, spacing::linear, "--bias");
+    const auto biases = parse_range(a.bias, dimension::voltage, a.points, spacing::linear, "--bias", a.step);
     refuse_huge_grid(gaps.size(), biases.size(), "--points");
     const auto points = all_pairs(gaps, biases, true);  // bias outer, gap inner
     const auto results = naming_flags("predict", flag_error::own_kind, [&] { return predict_points(c, points, a.threads); });
@@ -65,14 +67,14 @@ command predict_command() {
     auto a = std::make_shared<predict_args>();
     command cmd{"predict", "Predict current, conductance, decay constant and apparent barrier height at given gaps and biases"};
     cmd.flags = {
-        config_flag(a->config_path, "Junction configuration (YAML); default: the built-in one"),
         {"--gap", "Gap: one value (0.6nm), a list (0.5nm,0.6nm) or a range FROM..TO", &a->gap, "", true},
         {"--bias", "Sample bias: one value (0.1V, -0.5V), a list or a range FROM..TO", &a->bias, "", true},
         {"--points", "Points per range (default 11)", &a->points, "", false, std::pair{2, 1000000}},
+        {"--step", "Step of the bias range instead of --points, e.g. 0.1V (must divide the range)", &a->step, "VOLTAGE"},
         {"--threads", "Worker threads (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
         {"--plot", "Also write a figure: FILE.png, FILE.svg or FILE.pdf", &a->plot_path},
     };
-    for (auto list : {plot_flag_list(a->plot, false), uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
+    for (auto list : {junction_flag_list(a->junction), plot_flag_list(a->plot, false), uncertainty_flags(a->uncertainty), output_flags(a->format, a->output)})
         cmd.flags.insert(cmd.flags.end(), list.begin(), list.end());
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;

@@ -6,6 +6,7 @@
 
 #include "command.hpp"
 #include "flags.hpp"
+#include "junction.hpp"
 #include "output.hpp"
 #include "tipgap/figures/resonance_plot.hpp"
 #include "tipgap/fit/resonance_columns.hpp"
@@ -16,10 +17,11 @@ namespace tipgap::cli {
 namespace {
 
 struct resonance_args {
-    std::string file, config_path, smoothing, output, plot_path;
+    std::string file, smoothing, output, plot_path;
     bool formula_only = false;
     int threads = 0;
     output_format format = output_format::table;
+    junction_flags junction;
 };
 
 resonance_options options_of(const resonance_args& a) {
@@ -41,7 +43,7 @@ std::string text_of(const resonance_args& a, const config& c, const bias_trace& 
 }
 
 void run(const resonance_args& a) {
-    const config c = load_config_or_default(a.config_path);
+    const config c = load_junction(a.junction);
     if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
     const resonance_options o = options_of(a);
     const bias_trace t = read_bias_trace(a.file);
@@ -61,13 +63,13 @@ command resonances_command() {
     cmd.flags = {
         {"file", "Trace: '# current: 1 nA', header 'bias [V],z [nm]' (or 'bias [V],didv [nS]'), rows", &a->file, "FILE",
          true},
-        config_flag(a->config_path, "Junction configuration (YAML); its sample work function is the one fitted; default: built-in"),
         {"--smoothing", "Full width of the smoothing window (default 0.6V)", &a->smoothing, "VOLTAGE"},
         {"--formula-only", "Peaks and the triangular-well formula only (no model fit)", &a->formula_only},
         {"--threads", "Worker threads for the model traces (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
         {"--plot", "Also write a figure: FILE.png, FILE.svg or FILE.pdf", &a->plot_path, "FILE"},
     };
-    for (flag& f : output_flags(a->format, a->output)) cmd.flags.push_back(f);
+    for (auto list : {junction_flag_list(a->junction), output_flags(a->format, a->output)})
+        cmd.flags.insert(cmd.flags.end(), list.begin(), list.end());
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;
 }

@@ -8,6 +8,7 @@
 
 #include "command.hpp"
 #include "flags.hpp"
+#include "junction.hpp"
 #include "output.hpp"
 #include "synth_zv.hpp"
 #include "tipgap/core/error.hpp"
@@ -18,8 +19,8 @@ namespace tipgap::cli {
 namespace {
 
 struct synth_args {
-    std::string out, truth, config_path;
-    std::string tip_material, sample_material, tip_wf, sample_wf, temperature;
+    std::string out, truth;
+    junction_flags junction;
     std::string bias, gap = "0.45nm..1nm", gap_at_z0, sweeps = "retract";
     std::size_t points = 121;
     std::string noise, baseline, gap_jitter, saturation, drift, jump_gap;
@@ -31,22 +32,6 @@ struct synth_args {
     bool zv = false;  // --zv: a constant-current z(V) trace instead (synth_zv.cpp); bias empty: 100mV or 4V..10V
     std::string current, z_noise;
 };
-
-config synth_config(const synth_args& a) {
-    config c = load_config_or_default(a.config_path);
-    auto material = [](const std::string& name, const char* flag) {
-        const material_entry m = find_material(name, location{"", 0, 0, flag});
-        return electrode{m.name, m.work_function_J, m.fermi_energy_J};
-    };
-    if (!a.tip_material.empty()) c.model.tip = material(a.tip_material, "--tip-material");
-    if (!a.sample_material.empty()) c.model.sample = material(a.sample_material, "--sample-material");
-    if (!a.tip_wf.empty()) c.model.tip.work_function_J = flag_quantity(a.tip_wf, dimension::energy, "--tip-work-function");
-    if (!a.sample_wf.empty())
-        c.model.sample.work_function_J = flag_quantity(a.sample_wf, dimension::energy, "--sample-work-function");
-    if (!a.temperature.empty()) c.model.temperature_K = flag_quantity(a.temperature, dimension::temperature, "--temperature");
-    c.model.validate();
-    return c;
-}
 
 synth_options synth_opts(const synth_args& a) {
     synth_options o;
@@ -100,7 +85,7 @@ synth_grid_options grid_opts(const synth_args& a) {
 }
 
 void run(const synth_args& a, const std::string& line) {
-    const config c = synth_config(a);
+    const config c = load_junction(a.junction);
     if (a.zv) {
         const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
         return run_synth_zv(c, {a.bias, a.current, a.z_noise, a.points, a.seed, a.out, truth, line});
@@ -143,12 +128,6 @@ command synth_command() {
     cmd.flags = {
         {"--out", "Curve CSV to write (the truth goes to <stem>.truth.yaml beside it)", &a->out, "FILE", true},
         {"--truth", "Ground-truth YAML to write (default <stem>.truth.yaml)", &a->truth, "FILE"},
-        {"--config", "Junction config (default: the built-in one)", &a->config_path, "FILE"},
-        {"--tip-material", "Tip material from the materials library", &a->tip_material, "NAME"},
-        {"--sample-material", "Sample material from the materials library", &a->sample_material, "NAME"},
-        {"--tip-work-function", "Tip work function, e.g. 3.8eV", &a->tip_wf, "ENERGY"},
-        {"--sample-work-function", "Sample work function", &a->sample_wf, "ENERGY"},
-        {"--temperature", "Temperature, e.g. 4.2K", &a->temperature, "TEMPERATURE"},
         {"--bias", "Sample bias (default 100mV)", &a->bias, "VOLTAGE"},
         {"--gap", "Absolute gap range FROM..TO (default 0.45nm..1nm)", &a->gap, "RANGE"},
         {"--points", "Samples per sweep (default 121)", &a->points, "N"},
@@ -177,6 +156,8 @@ command synth_command() {
         {"--current", "--zv: setpoint current (default 1nA)", &a->current, "CURRENT"},
         {"--z-noise", "--zv: standard deviation of white z noise, e.g. 2pm (default 0)", &a->z_noise, "LENGTH"},
     };
+    const auto junction = junction_flag_list(a->junction);
+    cmd.flags.insert(cmd.flags.end(), junction.begin(), junction.end());
     cmd.run = [a](const std::string& line) { run(*a, line); };
     return cmd;
 }

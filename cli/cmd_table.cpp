@@ -4,7 +4,9 @@
 
 #include "command.hpp"
 #include "flags.hpp"
+#include "junction.hpp"
 #include "output.hpp"
+#include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/plan/reference_table.hpp"
@@ -14,25 +16,11 @@ namespace tipgap::cli {
 namespace {
 
 struct table_args {
-    std::string config_path, samples, current = "1nA", bias = "0.1V", output;
+    std::string samples, current = "1nA", bias = "0.1V", output;
     int threads = 0;
     output_format format = output_format::table;
+    junction_flags junction;
 };
-
-std::vector<std::string> split_names(const std::string& s) {
-    std::vector<std::string> out;
-    std::size_t start = 0;
-    while (start <= s.size() && !s.empty()) {
-        std::size_t comma = s.find(',', start);
-        std::string item = s.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
-        while (!item.empty() && item.front() == ' ') item.erase(item.begin());
-        while (!item.empty() && item.back() == ' ') item.pop_back();
-        if (!item.empty()) out.push_back(item);
-        if (comma == std::string::npos) break;
-        start = comma + 1;
-    }
-    return out;
-}
 
 std::string explanation(const config& c, double I, double V) {
     const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
@@ -44,11 +32,13 @@ std::string explanation(const config& c, double I, double V) {
 }
 
 void run(const table_args& a) {
-    const config c = load_config_or_default(a.config_path);
+    const config c = load_junction(a.junction);
     const double I = parse_quantity(a.current, dimension::current, location{"", 0, 0, "--current"});
     const double V = parse_quantity(a.bias, dimension::voltage, location{"", 0, 0, "--bias"});
+    const std::string& samples = a.samples.empty() ? a.junction.text.sample : a.samples;  // "" : every material
+    const std::vector<std::string> names = samples.empty() ? std::vector<std::string>{} : split_list(samples);
     const auto rows = naming_flags("table", flag_error::own_kind,
-                                   [&] { return reference_table(c, split_names(a.samples), I, V, {}, a.threads); });
+                                   [&] { return reference_table(c, names, I, V, {}, a.threads); });
     for (const auto& r : rows) print_warnings(r.warnings, r.sample);
 
     report_frame frame{.rows_key = "rows", .sort_keys = true, .before_table = explanation(c, I, V)};
@@ -68,13 +58,13 @@ command table_command() {
     command cmd{"table", "Quick-reference table: barrier, decay constant, nm per decade, apparent barrier and gap at a "
                          "reference setpoint, for sample materials"};
     cmd.flags = {
-        config_flag(a->config_path, "Junction configuration (YAML); its tip is used"),
-        {"--samples", "Sample materials from the library, comma-separated (gold,graphite); default: all", &a->samples},
+        {"--samples", "Sample materials from the library, comma-separated (gold,graphite); default: --sample when given, else all", &a->samples},
         {"--current", "Reference setpoint current (default 1nA)", &a->current},
         {"--bias", "Reference setpoint bias (default 0.1V)", &a->bias},
         {"--threads", "Worker threads (default: all cores)", &a->threads, "", false, std::pair{0, 256}},
     };
-    for (const flag& f : output_flags(a->format, a->output)) cmd.flags.push_back(f);
+    for (auto list : {junction_flag_list(a->junction), output_flags(a->format, a->output)})
+        cmd.flags.insert(cmd.flags.end(), list.begin(), list.end());
     cmd.run = [a](const std::string&) { run(*a); };
     return cmd;
 }

@@ -40,7 +40,11 @@ struct flag {
     bool required = false;
     std::optional<std::pair<int, int>> range = std::nullopt;  // allowed values of an integer
     std::string default_text = "";                            // the default as the help shows it
+    std::function<void()> then = nullptr;  // run when the flag is given, before required flags are checked
 };
+
+// Thrown by a flag's `then` that has done the whole job (--show-config): main exits with 0.
+struct finished {};
 
 struct command {
     std::string name;

@@ -14,6 +14,14 @@ constexpr flag_name flag_names[] = {
     {"", "bias", "--bias"},
     {"", "current", "--current"},
     {"table", "samples", "--samples"},
+    // junction_overlay (cli/junction.cpp)
+    {"", "tip.material", "--tip"},
+    {"", "sample.material", "--sample"},
+    {"", "tip.work_function", "--tip-work-function"},
+    {"", "sample.work_function", "--sample-work-function"},
+    {"", "temperature", "--temperature"},
+    {"", "barrier.image_potential", "--image"},
+    {"", "method", "--method"},
     // uncertainty_options
     {"", "samples", "--mc-samples"},
     // fit_options (fit and map)
@@ -35,6 +43,7 @@ constexpr flag_name flag_names[] = {
     {"", "bias_V", "--bias"},
     {"", "temperature_K", "--temperature"},
     // map_options
+    {"plan", "reference_bias", "--reference-bias"},
     {"map", "min_current_decades", "--min-decades"},
     {"map", "max_relative_stderr", "--max-relative-error"},
     {"map", "threads", "--threads"},

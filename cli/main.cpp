@@ -64,6 +64,7 @@ void add_flag(CLI::App* cmd, const flag& f) {
     if (f.required) o->required();
     if (f.range) o->check(CLI::Range(f.range->first, f.range->second));
     if (!f.default_text.empty()) o->default_str(f.default_text);
+    if (f.then) o->each([then = f.then](const std::string&) { then(); });
 }
 
 // The command as parsed, in a canonical order, for the metadata of the files it writes.
@@ -258,6 +259,8 @@ int main(int argc, char** argv) {
         add_command(app, make());
     try {
         app.parse(argc, argv);
+    } catch (const finished&) {
+        return 0;
     } catch (const CLI::CallForHelp& e) {
         return app.exit(e);
     } catch (const CLI::CallForAllHelp& e) {

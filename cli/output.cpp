@@ -20,8 +20,6 @@ std::vector<flag> uncertainty_flags(uncertainty_options& o) {
             {"--seed", "Seed of the Monte Carlo draws (default 1); the same seed gives the same result", &o.seed}};
 }
 
-flag config_flag(std::string& path, const char* help) { return {"--config,-c", help, &path}; }
-
 void write_output(const std::string& path, std::string_view content) {
     if (path.empty() || path == "-") {
         write_stdout(content);
@@ -38,10 +36,6 @@ void print_warnings(const std::vector<std::string>& warnings, const std::string&
             fmt::print(stderr, "tipgap: warning: {}: {}\n", context, w);
         }
     }
-}
-
-config load_config_or_default(const std::string& path) {
-    return path.empty() ? tipgap::default_config() : tipgap::load_config(path);
 }
 
 std::string config_line(const config& c) {

@@ -20,8 +20,6 @@ flag format_flag(output_format& format);
 std::vector<flag> output_flags(output_format& format, std::string& path);
 // --mc-samples N and --seed S (Monte Carlo draws for configured input uncertainties).
 std::vector<flag> uncertainty_flags(uncertainty_options& o);
-// --config,-c FILE.
-flag config_flag(std::string& path, const char* help);
 
 // Writes `content` to stdout when `path` is empty or "-", else atomically to `path`.
 void write_output(const std::string& path, std::string_view content);
@@ -41,9 +39,6 @@ void print_first_warnings(const Items& items, Context context, const char* noun)
     }
     if (warned > 3) fmt::print(stderr, "tipgap: warning: ... and {} more {} with warnings (see the output)\n", warned - 3, noun);
 }
-
-// --config FILE, or the built-in default when empty.
-config load_config_or_default(const std::string& path);
 
 // "# <source> · T = ... K · image ... · method ... · geometry ...": the first line of a table.
 std::string config_line(const config& c);

@@ -7,7 +7,23 @@
 
 namespace tipgap::cli {
 
-std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag) {
+namespace {
+
+// The number of values FROM..TO in steps of `step`; a usage error when the step does not divide it.
+int points_of_step(double a, double b, const std::string& step, dimension d) {
+    const double h = std::abs(parse_quantity(step, d, location{"", 0, 0, "--step"}));
+    const double n = std::abs(b - a) / h;
+    if (!(h > 0) || !std::isfinite(n) || n > 1e6 || std::abs(n - std::round(n)) > 1e-6 * std::max(1.0, n) || std::round(n) < 1)
+        throw_usage("--step", fmt::format("{} does not divide the range {:g}..{:g} into at most 1e6 equal steps; expected a "
+                                          "step that does",
+                                          quote_input(step), a, b));
+    return static_cast<int>(std::round(n)) + 1;
+}
+
+}  // namespace
+
+std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag,
+                                const std::string& step) {
     location w;
     w.key = flag;
     std::vector<double> out;
@@ -17,9 +33,11 @@ std::vector<double> parse_range(std::string_view text, dimension d, int points, 
         if (sp == spacing::logarithmic && !(a * b > 0)) {
             throw_input(w, "a logarithmic range needs both ends non-zero and of the same sign");
         }
+        if (!step.empty() && sp == spacing::linear) points = points_of_step(a, b, step, d);
         for (int i = 0; i < points; ++i) {
             double t = static_cast<double>(i) / (points - 1);
             double v = sp == spacing::linear ? a + (b - a) * t : a * std::pow(b / a, t);
+            if (sp == spacing::linear && std::abs(v) <= 1e-12 * std::abs(b - a)) v = 0.0;
             out.push_back(i == points - 1 ? b : v);
         }
         return out;
@@ -33,6 +51,16 @@ std::vector<double> parse_range(std::string_view text, dimension d, int points, 
         start = comma + 1;
     }
     return out;
+}
+
+std::vector<std::string> split_list(const std::string& text) {
+    std::vector<std::string> out;
+    for (std::size_t start = 0;;) {
+        const std::size_t comma = text.find(',', start);
+        out.push_back(text.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
+        if (comma == std::string::npos) return out;
+        start = comma + 1;
+    }
 }
 
 std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,

@@ -14,9 +14,16 @@ namespace tipgap::cli {
 enum class spacing { linear, logarithmic };
 
 // Parses "0.6nm", "0.4nm,0.6nm" or "0.4nm..1.2nm" (a range gets `points` values, ends included; a
-// single value or a list ignores `points`). points: >= 2, which the --points flag checks (2 to 1e6). Logarithmic spacing needs FROM and TO of
-// the same sign, both non-zero. Throws tipgap::error naming `flag` on bad text.
-std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag);
+// single value or a list ignores `points`). points: >= 2, which the --points flag checks (2 to 1e6).
+// step: "" or the --step text (same dimension, linear ranges only): the range then goes FROM..TO
+// in steps of that size, which must divide it. Logarithmic spacing needs FROM and TO of the same
+// sign, both non-zero. A linear value within 1e-12 of the range's size from 0 is exactly 0. Throws
+// tipgap::error naming `flag` on bad text.
+std::vector<double> parse_range(std::string_view text, dimension d, int points, spacing sp, const std::string& flag,
+                                const std::string& step = "");
+
+// "Z,I" -> {"Z", "I"}: the items between commas, as written ("" -> {""}).
+std::vector<std::string> split_list(const std::string& text);
 
 // Every (first, second) pair, with `second` in the outer loop when second_outer.
 std::vector<std::pair<double, double>> all_pairs(const std::vector<double>& first, const std::vector<double>& second,

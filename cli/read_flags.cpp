@@ -4,25 +4,10 @@
 #include <fmt/format.h>
 
 #include "flags.hpp"
+#include "ranges.hpp"
 #include "tipgap/core/error.hpp"
 
 namespace tipgap::cli {
-
-namespace {
-
-// "Z,I" -> {"Z", "I"}: list syntax belongs to the command line.
-std::vector<std::string> split_list(const std::string& text) {
-    std::vector<std::string> out;
-    std::size_t start = 0;
-    for (;;) {
-        const std::size_t comma = text.find(',', start);
-        out.push_back(text.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
-        if (comma == std::string::npos) return out;
-        start = comma + 1;
-    }
-}
-
-}  // namespace
 
 reader_options to_reader_options(const read_flags& f, const char* command, std::size_t roles) {
     reader_options o;

@@ -17,7 +17,7 @@ fail() { echo "FAIL: $*" >&2; exit 1; }
 "$TIPGAP" map "$tmp/grid.csv" --output-dir "$tmp/t2" --threads 2 > "$tmp/out2.txt" 2> "$tmp/err2.txt"
 [ ! -s "$tmp/err2.txt" ] || fail "stderr not empty (no terminal: no progress bar): $(cat "$tmp/err2.txt")"
 head -1 "$tmp/out1.txt" | grep -qx "tipgap map: 16 x 16 pixels, 16384 samples -> $tmp/t1" || fail "summary line: $(head -1 "$tmp/out1.txt")"
-grep -qx "  quality: ok 256, too_few_points 0, saturated 0, contact 0, poor_fit 0" "$tmp/out1.txt" || fail "quality line: $(cat "$tmp/out1.txt")"
+grep -qx "  quality: ok 256, too_few_points 0, saturated 0, contact 0, poor_fit 0, missing 0" "$tmp/out1.txt" || fail "quality line: $(cat "$tmp/out1.txt")"
 for f in apparent_barrier_eV.csv decay_constant_per_nm.csv stderr_apparent_barrier_eV.csv quality.csv summary.json \
          barrier_map.png barrier_histogram.png stderr_map.png quality_map.png; do
   [ -s "$tmp/t1/$f" ] || fail "missing $f"
@@ -74,8 +74,8 @@ assert math.isclose(st["median"], np.median(vals), rel_tol=1e-12)
 assert math.isclose(st["standard_deviation"], vals.std(ddof=1), rel_tol=1e-10)
 for k, v in st["percentiles"].items():
     assert math.isclose(v, np.percentile(vals, float(k[1:])), rel_tol=1e-12), (k, v)
-assert s["quality_counts"] == {"ok": 256, "too_few_points": 0, "saturated": 0, "contact": 0, "poor_fit": 0}
-assert s["quality_codes"] == {"0": "ok", "1": "too_few_points", "2": "saturated", "3": "contact", "4": "poor_fit"}
+assert s["quality_counts"] == {"ok": 256, "too_few_points": 0, "saturated": 0, "contact": 0, "poor_fit": 0, "missing": 0}
+assert s["quality_codes"] == {"0": "ok", "1": "too_few_points", "2": "saturated", "3": "contact", "4": "poor_fit", "5": "missing"}
 PY
 
 # --range sets the barrier map's colours; a reversed range is a usage error naming the flag (issue 15).
@@ -120,7 +120,7 @@ assert q[12, 10] == 3, q[12, 10]
 assert q[15, 0] == 1 and np.isnan(phi[15, 0]), (q[15, 0], phi[15, 0])
 assert np.isfinite(phi[4, 3]) and np.isfinite(phi[12, 10])
 c = json.load(open(f"{sys.argv[1]}/summary.json"))["quality_counts"]
-assert c == {"ok": 253, "too_few_points": 1, "saturated": 1, "contact": 1, "poor_fit": 0}, c
+assert c == {"ok": 253, "too_few_points": 1, "saturated": 1, "contact": 1, "poor_fit": 0, "missing": 0}, c
 PY
 
 # Errors: a truncated file and an unsorted file; no output directory appears.

@@ -14,10 +14,10 @@ assert d["reference_setpoint"] == {"current_A": 1e-9, "bias_V": 0.1}, d["referen
 rows = d["rows"]
 assert [r["sample"] for r in rows] == ["gold", "graphite"], rows
 # CODATA 2018: m_e = 9.1093837015e-31 kg, hbar = 1.054571817e-34 J s, h = 6.62607015e-34 J s,
-# e = 1.602176634e-19 C. Tip: the built-in config's 4.5 eV; gold 5.31 eV, graphite 4.6 eV (library).
+# e = 1.602176634e-19 C. Tip: the built-in tungsten, 4.55 eV; gold 5.31 eV, graphite 4.6 eV (library).
 m, hbar, h, e = 9.1093837015e-31, 1.054571817e-34, 6.62607015e-34, 1.602176634e-19
 for r, phi_s in zip(rows, (5.31, 4.6)):
-    phi = 0.5 * (4.5 + phi_s)
+    phi = 0.5 * (4.55 + phi_s)
     assert abs(r["mean_barrier_eV"] - phi) < 1e-12, r
     kappa = math.sqrt(2 * m * phi * e) / hbar * 1e-9
     assert abs(r["decay_constant_per_nm"] / kappa - 1) < 1e-9, (r, kappa)
@@ -31,5 +31,5 @@ head -1 "$work/t.txt" | grep -q "reference setpoint 1e-09 A at 0.1 V" || fail "t
 "$TIPGAP" table --samples gold,unobtainium > /dev/null 2> "$work/bad.err"
 rc=$?
 [ $rc -eq 3 ] || fail "unknown material: exit $rc, expected 3"
-grep -q "^tipgap: error: --samples: unknown material 'unobtainium'; expected one of the materials library: tungsten," "$work/bad.err" || fail "unknown material message"
+grep -q "^tipgap: error: --samples: unknown material 'unobtainium'; expected one of the materials library: tungsten (W)," "$work/bad.err" || fail "unknown material message"
 echo "table CLI: ok"

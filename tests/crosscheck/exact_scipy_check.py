@@ -40,7 +40,7 @@ ODE_RTOL = 1e-12
 HERE = os.path.dirname(os.path.abspath(__file__))
 TABLE = os.path.join(HERE, "..", "data", "exact_transmission_scipy.csv")
 
-TIP = (4.5, 9.0)     # work function, Fermi energy (eV): the built-in tungsten tip
+TIP = (4.5, 9.0)     # work function, Fermi energy (eV): the reference tungsten tip (the built-in default before issue 15)
 SAMPLE = (5.3, 5.5)  # the built-in gold sample
 
 
@@ -194,7 +194,7 @@ def write_table():
         T = Gap(Junction(image=bool(img)), s, V).transmission(E)[0]
         rows.append(f"{s},{V},{E},{img},{T:.15e}")
     with open(TABLE, "w") as fh:
-        fh.write("# T(E) of the built-in junction (W tip 4.5 eV / E_F 9.0 eV, Au sample 5.3 eV / E_F 5.5 eV,\n")
+        fh.write("# T(E) of the reference junction (W tip 4.5 eV / E_F 9.0 eV, Au sample 5.3 eV / E_F 5.5 eV,\n")
         fh.write("# K = 1), exact image with the default surface model (image = 1) or none (image = 0).\n")
         fh.write("# Source: scipy.integrate.solve_ivp (DOP853, rtol 1e-12) in tests/crosscheck/exact_scipy_check.py;\n")
         fh.write("# rows reproduce to ~1e-10 relative. E from the tip Fermi level.\n")

@@ -76,6 +76,6 @@ TEST(map_figures, stderr_map_in_meV_and_quality_map_in_code_bands) {
     const auto& q = std::get<plot::colour_map_panel>(qf.panels.at(0));
     EXPECT_EQ(q.z, (std::vector<double>{0, 0, 2, 3, 1, 4}));
     EXPECT_DOUBLE_EQ(*q.z_min, -0.5);
-    EXPECT_DOUBLE_EQ(*q.z_max, 4.5);
-    EXPECT_EQ(q.title, "quality: 0 ok, 1 too_few_points, 2 saturated, 3 contact, 4 poor_fit");
+    EXPECT_DOUBLE_EQ(*q.z_max, 5.5);
+    EXPECT_EQ(q.title, "quality: 0 ok, 1 too_few_points, 2 saturated, 3 contact, 4 poor_fit, 5 missing");
 }

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "support/synth_sweep.hpp"
+#include "support/reference_junction.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/fit/fit.hpp"
@@ -31,7 +32,7 @@ constexpr double eV_ = si::electron_volt;
 // 0.1 pm: 100x the measured error (room for other compilers and maths libraries), still 1000x
 // below the 0.2 eV differences a user compares.
 TEST(model_fit, recovers_work_function_and_gap_offset_from_noise_free_model_curve) {
-    config c = default_config();
+    config c = tipgap_test::reference_junction();
     config truth = with_mean_work_function(c, 4.6 * eV_);
     synth_options o;
     o.gap_min_m = 0.5 * nm_;
@@ -59,7 +60,7 @@ TEST(model_fit, recovers_work_function_and_gap_offset_from_noise_free_model_curv
 }
 
 TEST(model_fit, needs_a_bias) {
-    const config c = default_config();
+    const config c = tipgap_test::reference_junction();
     synth_options o;
     const synth_curve s = synthesise_curve(c, o);
     const curve_sweep sweep = as_sweep(s, 0, s.samples.size());

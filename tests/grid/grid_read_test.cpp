@@ -46,13 +46,15 @@ TEST(grid_read, truncated_and_unsorted_files_give_exact_errors) {
     for (int k = 0; k < 3; ++k) cut_row.erase(cut_row.rfind('\n', cut_row.size() - 2) + 1);
     EXPECT_EQ(run("row.csv", cut_row), d.file("row.csv") +
                                             ":44:1: pixel (x = 2 nm, y = 1 nm) has 5 samples; the first pixel (line "
-                                            "4) has 8; every pixel needs the same number (is the file cut short?)");
+                                            "4) has 8; every pixel needs the same number (is the file cut short?); if the acquisition was "
+                                            "aborted, 'tipgap map --partial' maps the pixels that are there");
     // Cut after a whole pixel.
     std::string cut_pixel = text;
     for (int k = 0; k < 8; ++k) cut_pixel.erase(cut_pixel.rfind('\n', cut_pixel.size() - 2) + 1);
     EXPECT_EQ(run("pixel.csv", cut_pixel), d.file("pixel.csv") +
                                                ": the pixels do not fill a grid: 5 pixels for 3 x values times 2 y "
-                                               "values; pixel (x = 2 nm, y = 1 nm) is missing (is the file cut short?)");
+                                               "values; pixel (x = 2 nm, y = 1 nm) is missing (is the file cut short?); if the acquisition "
+                                               "was aborted, 'tipgap map --partial' maps the pixels that are there");
     // Unsorted: the first row of pixel (1, 0) moved to the top, before pixel (0, 0), so that
     // pixel (1, 0) starts on line 4 and again on line 13.
     std::string unsorted = text;

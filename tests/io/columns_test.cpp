@@ -6,6 +6,7 @@
 
 #include <cmath>
 #include <limits>
+#include <random>
 #include <string>
 #include <vector>
 
@@ -53,7 +54,7 @@ TEST(columns, table_is_aligned_with_units_rule_and_plus_minus) {
     EXPECT_EQ(format_table(sample_columns(), rows),
               "name  gap [nm]                I [A]  points   ok\n"
               "------------------------------------------------\n"
-              " a,b    0.6000  1.235e-09 ± 2.0e-11      12  yes\n"
+              " a,b    0.6000  (1.235 ± 0.020)e-09      12  yes\n"
               "   c       NaN           -2.500e-12       3   no\n");
 }
 
@@ -137,6 +138,70 @@ TEST(columns, fixed_widths_pad_left_or_right_and_let_a_long_cell_overflow) {
 
 TEST(columns, a_line_of_prose_takes_each_key_from_its_column) {
     EXPECT_EQ(format_line(sample_columns(), rows[0], "{name}: I = {current_A}, {points} points, ok: {ok}"),
-              "a,b: I = 1.235e-09 ± 2.0e-11, 12 points, ok: yes");
+              "a,b: I = (1.235 ± 0.020)e-09, 12 points, ok: yes");
     EXPECT_THROW(format_line(sample_columns(), rows[0], "{nothing}"), std::logic_error);
+}
+
+// Two significant digits of the uncertainty, the value rounded to the same place (common practice
+// in reporting measurements, no source); a non-zero uncertainty never prints as zero.
+TEST(columns, uncertainty_has_two_digits_and_the_value_matches) {
+    EXPECT_EQ(with_uncertainty(4.41234, 0.0123), "4.412 ± 0.012");
+    EXPECT_EQ(with_uncertainty(4.41234, 0.000412), "4.41234 ± 0.00041");
+    EXPECT_EQ(with_uncertainty(12345.0, 678.0), "12350 ± 680");
+    EXPECT_EQ(with_uncertainty(-2.5, 0.996), "-2.5 ± 1.0");
+    EXPECT_EQ(with_uncertainty(1.0002e-9, 1.3e-12), "(1.0002 ± 0.0013)e-09");
+    EXPECT_EQ(with_uncertainty(4.4, 0.0), "4.400 ± 0");
+    EXPECT_EQ(interval_text(4.398, 4.4271), "4.398 – 4.427");
+    EXPECT_EQ(interval_text(4.41, 4.41), "4.410 – 4.410");
+}
+
+TEST(columns, no_nonzero_uncertainty_prints_as_zero_over_many_seeded_pairs) {
+    std::mt19937_64 rng(15);
+    std::uniform_real_distribution<double> exponent(-16.0, 8.0), mantissa(-9.99, 9.99), ratio(-9.0, 1.0);
+    int checked = 0;
+    for (int i = 0; i < 20000; ++i) {
+        const double v = mantissa(rng) * std::pow(10.0, exponent(rng));
+        const double u = std::abs(v) * std::pow(10.0, ratio(rng)) + 1e-300;
+        const std::string s = with_uncertainty(v, u);
+        // The uncertainty's digits: between "± " and the end or ")".
+        const std::size_t pm = s.find("± ");
+        ASSERT_NE(pm, std::string::npos) << s;
+        std::string digits = s.substr(pm + 3);
+        const std::size_t close = digits.find(')');
+        double scale = 1.0;
+        if (close != std::string::npos) {
+            scale = std::pow(10.0, std::stoi(digits.substr(close + 2)));
+            digits = digits.substr(0, close);
+        }
+        const double shown = std::stod(digits) * scale;
+        ASSERT_GT(shown, 0.0) << v << " ± " << u << " -> " << s;
+        // Two significant digits: within 5 % of the uncertainty (rounding 1.05 to 1.1 is 4.8 %).
+        ASSERT_NEAR(shown / u, 1.0, 0.05) << v << " ± " << u << " -> " << s;
+        // The value's text has the same number of decimals as the uncertainty's.
+        const std::string value = s.substr(s.front() == '(' ? 1 : 0, pm - 1 - (s.front() == '(' ? 1 : 0));
+        const auto decimals = [](const std::string& t) {
+            const std::size_t dot = t.find('.');
+            return dot == std::string::npos ? std::size_t{0} : t.size() - dot - 1;
+        };
+        ASSERT_EQ(decimals(value), decimals(digits)) << s;
+        ++checked;
+    }
+    EXPECT_EQ(checked, 20000);
+}
+
+TEST(columns, reading_prefix_keeps_values_between_one_and_a_thousand) {
+    EXPECT_EQ(reading_prefix(1e-10), (std::pair<double, std::string>{1e-12, "p"}));
+    EXPECT_EQ(reading_prefix(1e-9), (std::pair<double, std::string>{1e-9, "n"}));
+    EXPECT_EQ(reading_prefix(3.0), (std::pair<double, std::string>{1.0, ""}));
+    EXPECT_EQ(reading_prefix(0.1), (std::pair<double, std::string>{1e-3, "m"}));
+    EXPECT_EQ(reading_prefix(2e9), (std::pair<double, std::string>{1e9, "G"}));
+    EXPECT_EQ(reading_prefix(8e-16), (std::pair<double, std::string>{1e-15, "f"}));
+    EXPECT_EQ(reading_prefix(8e-16, 1e-12), (std::pair<double, std::string>{1e-12, "p"}));  // lengths: 0.0008 pm
+    EXPECT_EQ(reading_prefix(0.0), (std::pair<double, std::string>{1.0, ""}));
+}
+
+TEST(columns, a_narrow_interval_keeps_its_ends_apart) {
+    EXPECT_EQ(interval_text(4.4439995, 4.4440005), "4.44399950 – 4.44400050");
+    EXPECT_EQ(interval_text(-1.25, 2.5), "-1.2 – 2.5");
+    EXPECT_EQ(interval_text(120.0, 180.0), "120 – 180");
 }

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "support/reference_junction.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/model/current.hpp"
@@ -14,7 +15,7 @@ using namespace tipgap;
 
 namespace {
 model_options exact_junction(image_kind image = image_kind::exact) {
-    model_options o = default_config().model;  // W 4.5/9.0 eV tip, Au 5.3/5.5 eV sample, 4.2 K
+    model_options o = tipgap_test::reference_junction().model;  // W 4.5/9.0 eV tip, Au 5.3/5.5 eV sample, 4.2 K
     o.method = method_kind::exact;
     o.image = image;
     return o;

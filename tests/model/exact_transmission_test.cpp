@@ -12,6 +12,7 @@
 #include <string>
 
 #include "model/detail/magnus_step.hpp"
+#include "support/reference_junction.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -216,7 +217,7 @@ TEST(exact_transmission, matches_scipy_solution_with_image_and_surface_model) {
         double s, V, E, img, T;
         char sep;
         ss >> s >> sep >> V >> sep >> E >> sep >> img >> sep >> T;
-        model_options o = default_config().model;  // the table's junction is the built-in one
+        model_options o = tipgap_test::reference_junction().model;  // the table was computed for the reference junction (4.5/5.3 eV)
         o.image = img != 0.0 ? image_kind::exact : image_kind::none;
         const double got_default = exact_transmission(o, s * 1e-9, V, o.rel_tol).transmission(E * J_per_eV);
         const double got_tight = exact_transmission(o, s * 1e-9, V, 1e-10).transmission(E * J_per_eV);
@@ -244,7 +245,7 @@ TEST(exact_transmission, long_evanescent_step_does_not_overflow) {
 }
 
 TEST(exact_transmission, rejects_bad_tolerance_and_empty_range) {
-    const auto o = default_config().model;
+    const auto o = tipgap_test::reference_junction().model;
     EXPECT_THROW(exact_transmission(o, 1e-9, 0.5, 0.0), tipgap::error);
     EXPECT_THROW(exact_transmission(o, 1e-9, 0.5, -1.0 * J_per_eV, -2.0 * J_per_eV, 1e-6), tipgap::error);
     try {
@@ -256,7 +257,7 @@ TEST(exact_transmission, rejects_bad_tolerance_and_empty_range) {
 }
 
 TEST(exact_transmission, error_estimate_respects_tolerance_and_is_zero_below_band_bottom) {
-    const auto o = default_config().model;
+    const auto o = tipgap_test::reference_junction().model;
     for (double tol : {1e-4, 1e-7, 1e-10}) {
         exact_transmission t(o, 1e-9, 0.5, tol);
         EXPECT_LE(t.error_estimate(), tol);

@@ -4,6 +4,7 @@
 
 #include <cmath>
 
+#include "support/reference_junction.hpp"
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/model/exact_transmission.hpp"
@@ -17,7 +18,7 @@ constexpr double J_per_eV = si::electron_volt;
 // Without the image force the trapezoid never dips below a band bottom at these biases: one smooth
 // piece, equal to the barrier everywhere.
 TEST(surface_potential, image_free_trapezoid_is_not_clamped) {
-    model_options o = default_config().model;
+    model_options o = tipgap_test::reference_junction().model;
     o.image = image_kind::none;
     surface_potential p(o, 1e-9, 2.0);
     ASSERT_EQ(p.pieces().size(), 1u);
@@ -30,7 +31,7 @@ TEST(surface_potential, image_free_trapezoid_is_not_clamped) {
 // With the image: clamped at -E_F,tip next to the tip and at -eV - E_F,sample next to the sample,
 // continuous at both joins, and equal to the image-lowered barrier in between.
 TEST(surface_potential, image_barrier_is_clamped_at_each_band_bottom_and_continuous) {
-    const model_options o = default_config().model;  // W 4.5/9.0 J_per_eV, Au 5.3/5.5 J_per_eV
+    const model_options o = tipgap_test::reference_junction().model;  // W 4.5/9.0 J_per_eV, Au 5.3/5.5 J_per_eV
     for (double V : {-2.0, 0.1, 3.0, 8.0}) {
         const double s = 1e-9;
         surface_potential p(o, s, V);

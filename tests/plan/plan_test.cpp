@@ -191,3 +191,40 @@ TEST(plan, bad_input_is_an_input_error) {
     o.gap_max_m = o.gap_min_m;
     EXPECT_THROW(solve_gap(c, 1e-9, 0.1, o), error);
 }
+
+// A z(V) trace through 0 V: every other bias answered, the 0 V point kept without a gap; dz_m is
+// the gap minus the gap at the reference bias for the same current (plan.hpp).
+TEST(plan, trace_through_zero_keeps_the_zero_point_and_dz_follows_the_reference) {
+    const config c = default_config();
+    const std::vector<std::pair<double, double>> sp = {{1e-10, -0.5}, {1e-10, 0.0}, {1e-10, 0.5}, {1e-9, 0.5}};
+    const auto pts = plan_setpoints(c, sp, {}, 1);
+    ASSERT_EQ(pts.size(), 4u);
+    EXPECT_EQ(pts[1].solution.status, solve_status::zero_bias);
+    EXPECT_FALSE(pts[1].reachable());
+    EXPECT_TRUE(std::isnan(pts[1].solution.gap_m));
+    EXPECT_TRUE(std::isnan(pts[1].dz_m));
+    EXPECT_FALSE(pts[1].note.empty());
+    for (std::size_t i : {0u, 2u, 3u}) EXPECT_EQ(pts[i].solution.status, solve_status::converged) << i;
+    // Default reference: the first non-zero bias, -0.5 V, for each current.
+    EXPECT_EQ(pts[0].dz_m, 0.0);
+    EXPECT_NEAR(pts[2].dz_m, pts[2].solution.gap_m - pts[0].solution.gap_m, 1e-24);
+    const double ref_1nA = plan_setpoint(c, 1e-9, -0.5).solution.gap_m;
+    EXPECT_NEAR(pts[3].dz_m, pts[3].solution.gap_m - ref_1nA, 1e-15);
+    // Another reference bias.
+    plan_options o;
+    o.reference_bias_V = 0.5;
+    const auto at = plan_setpoints(c, sp, o, 1);
+    EXPECT_EQ(at[2].dz_m, 0.0);
+    EXPECT_EQ(at[3].dz_m, 0.0);
+    EXPECT_NEAR(at[0].dz_m, at[0].solution.gap_m - at[2].solution.gap_m, 1e-24);
+    // Only zero biases: the request is wrong (input error naming the bias), as for a single point.
+    try {
+        plan_setpoints(c, {{1e-10, 0.0}}, {}, 1);
+        ADD_FAILURE() << "no error";
+    } catch (const error& e) {
+        EXPECT_EQ(e.kind(), error_kind::input);
+        EXPECT_EQ(e.where().key, "bias");
+    }
+    o.reference_bias_V = 0.0;
+    EXPECT_THROW(o.validate(), error);
+}

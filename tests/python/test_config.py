@@ -59,7 +59,7 @@ def test_material_keywords(default_config):
 
 def test_copies_and_repr(default_config):
     assert copy.copy(default_config).to_dict() == copy.deepcopy(default_config).to_dict() == default_config.to_dict()
-    assert repr(default_config).startswith("tipgap.Config(<default>: tip tungsten 4.5 eV, sample gold 5.3 eV")
+    assert repr(default_config).startswith("tipgap.Config(<default>: tip tungsten 4.55 eV, sample gold 5.31 eV")
 
 
 def test_help_shows_units_and_ranges():

@@ -138,7 +138,7 @@ def test_config_replace_errors():
     assert e.key == "sample_work_function_eV" and e.detail == "25 eV is out of range; expected a work function in (0, 20] eV"
     line, _ = cli_error("synth", "--out", "/nonexistent/x.csv", "--tip-material", "unobtainium")
     e = message_of(lambda: cfg.replace(tip_material="unobtainium"))
-    assert e.detail == line.split("--tip-material: ", 1)[1]
+    assert e.detail == line.split("--tip: ", 1)[1]
     with pytest.raises(TypeError, match="unexpected keyword argument 'temperature'"):
         cfg.replace(temperature=300)
     # Since issue 12 `exact` is a method; an unknown one gets the configuration file's wording.

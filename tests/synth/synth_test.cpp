@@ -78,7 +78,8 @@ TEST(synth, same_seed_same_file_other_seed_other_noise) {
     const truth_record t = read_truth((dir / "a.truth.yaml").string());
     EXPECT_EQ(t.seed, 42u);
     EXPECT_DOUBLE_EQ(t.current_noise_A, 1 * pA);
-    EXPECT_NEAR(t.mean_work_function_J, 4.9 * eV_, 1e-9 * eV_);
+    // The built-in default: tungsten 4.55 eV and gold 5.31 eV (configs/materials.yaml), mean 4.93 eV.
+    EXPECT_NEAR(t.mean_work_function_J, 4.93 * eV_, 1e-9 * eV_);
     ASSERT_EQ(t.sweeps.size(), 1u);
     EXPECT_NEAR(t.sweeps[0].decay_constant_expected_per_m, a.truth.sweeps[0].decay_constant_expected_per_m,
                 1e-8 * a.truth.sweeps[0].decay_constant_expected_per_m);  // 9 digits in the YAML

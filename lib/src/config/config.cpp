@@ -6,6 +6,7 @@
 #include <cstdint>
 #include <filesystem>
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <fstream>
 #include <initializer_list>
 #include <sstream>
@@ -87,23 +88,37 @@ struct reader {
     }
 };
 
-void read_electrode(const reader& r, const YAML::Node& n, const std::string& key, electrode& e, double& sigma) {
+// "file:line" of a key's value, for config::origin.
+std::string origin_of(const reader& r, const YAML::Node& n) {
+    return n.IsDefined() && n.Mark().line >= 0 ? fmt::format("{}:{}", r.file, n.Mark().line + 1) : r.file;
+}
+
+// A block of an electrode over the base's values: a material sets both energies from the library;
+// a work function alone makes the electrode custom.
+void read_electrode(const reader& r, const YAML::Node& n, const std::string& key, config& c, electrode& e, double& sigma) {
     r.require_map(n, key);
     r.check_keys(n, key, {"material", "work_function", "fermi_energy"});
     if (n["material"]) {
-        e.material = r.scalar(n["material"], key + ".material");
-        material_entry m = find_material(e.material, r.at(n["material"], key + ".material"));
+        material_entry m = find_material(r.scalar(n["material"], key + ".material"), r.at(n["material"], key + ".material"));
+        e.material = m.name;
         e.work_function_J = m.work_function_J;
         e.fermi_energy_J = m.fermi_energy_J;
+        sigma = 0;
+        for (const char* k : {".material", ".work_function", ".fermi_energy"}) c.origin[key + k] = origin_of(r, n["material"]);
     }
     if (n["work_function"]) {
         uncertain u = r.uncertain_quantity(n["work_function"], key + ".work_function", dimension::energy);
         e.work_function_J = u.value;
         sigma = u.sigma;
+        c.origin[key + ".work_function"] = origin_of(r, n["work_function"]);
+        if (!n["material"]) {
+            e.material.clear();
+            c.origin[key + ".material"] = c.origin[key + ".work_function"];
+        }
     }
-    if (n["fermi_energy"]) e.fermi_energy_J = r.quantity(n["fermi_energy"], key + ".fermi_energy", dimension::energy);
-    if (!n["material"] && !n["work_function"]) {
-        throw_input(r.at(n, key), "no work function given; expected a material or a work_function");
+    if (n["fermi_energy"]) {
+        e.fermi_energy_J = r.quantity(n["fermi_energy"], key + ".fermi_energy", dimension::energy);
+        c.origin[key + ".fermi_energy"] = origin_of(r, n["fermi_energy"]);
     }
 }
 
@@ -140,62 +155,59 @@ void validate_at(const reader& r, const YAML::Node& root, F&& f) {
     }
 }
 
-config parse_root(const YAML::Node& root, const std::string& name) {
+// An enum value by its name, or an error listing the names.
+template <class E>
+void read_enum(const reader& r, const YAML::Node& n, const std::string& key, const char* what, E& out) {
+    const std::string v = r.scalar(n, key);
+    if (!from_string(v, out))
+        throw_input(r.at(n, key), fmt::format("{} is not {}; expected {}", quote_input(v), what, accepted_names<E>()));
+}
+
+void read_geometry(const reader& r, const YAML::Node& g, config& c) {
+    r.require_map(g, "geometry");
+    r.check_keys(g, "geometry", {"kind", "area", "apex_radius", "contact_distance"});
+    if (g["kind"]) read_enum(r, g["kind"], "geometry.kind", "a geometry", c.geometry.kind);
+    if (g["area"]) c.geometry.area_m2 = r.quantity(g["area"], "geometry.area", dimension::area);
+    if (g["apex_radius"]) {
+        uncertain u = r.uncertain_quantity(g["apex_radius"], "geometry.apex_radius", dimension::length);
+        c.geometry.apex_radius_m = u.value;
+        c.sigma.apex_radius_m = u.sigma;
+    }
+    if (g["contact_distance"])
+        c.geometry.contact_distance_m = r.quantity(g["contact_distance"], "geometry.contact_distance", dimension::length);
+    for (const char* k : {"kind", "area", "apex_radius", "contact_distance"})
+        if (g[k]) c.origin[std::string("geometry.") + k] = origin_of(r, g[k]);
+}
+
+// The keys of `root` over `base` (the built-in default, or an empty config for the default itself).
+config parse_root(const YAML::Node& root, const std::string& name, config c) {
     reader r{name};
-    config c;
     c.source = name;
-    if (!root.IsDefined() || root.IsNull()) throw_input(r.at(YAML::Node(), ""), "the configuration is empty; expected at least a tip and a sample block");
+    if (!root.IsDefined() || root.IsNull())
+        throw_input(r.at(YAML::Node(), ""), "the configuration is empty; expected at least one key (what differs from the built-in default)");
     r.require_map(root, "(top level)");
     r.check_keys(root, "", {"name", "description", "tip", "sample", "barrier", "temperature", "method", "tolerance",
                             "bias_limit", "geometry"});
-    if (!root["tip"]) throw_input(r.at(root, "tip"), "the tip block is missing; expected a tip block (material or work_function)");
-    if (!root["sample"]) throw_input(r.at(root, "sample"), "the sample block is missing; expected a sample block (material or work_function)");
-    read_electrode(r, root["tip"], "tip", c.model.tip, c.sigma.tip_work_function_J);
-    read_electrode(r, root["sample"], "sample", c.model.sample, c.sigma.sample_work_function_J);
+    if (root["tip"]) read_electrode(r, root["tip"], "tip", c, c.model.tip, c.sigma.tip_work_function_J);
+    if (root["sample"]) read_electrode(r, root["sample"], "sample", c, c.model.sample, c.sigma.sample_work_function_J);
     if (auto b = root["barrier"]) {
         r.require_map(b, "barrier");
         r.check_keys(b, "barrier", {"image_potential", "relative_permittivity"});
-        if (b["image_potential"]) {
-            std::string v = r.scalar(b["image_potential"], "barrier.image_potential");
-            if (!from_string(v, c.model.image)) {
-                throw_input(r.at(b["image_potential"], "barrier.image_potential"),
-                            fmt::format("{} is not an image potential; expected {}", quote_input(v), accepted_names<image_kind>()));
-            }
-        }
+        if (b["image_potential"]) read_enum(r, b["image_potential"], "barrier.image_potential", "an image potential", c.model.image);
         if (b["relative_permittivity"]) {
             c.model.relative_permittivity =
                 r.quantity(b["relative_permittivity"], "barrier.relative_permittivity", dimension::dimensionless);
         }
+        for (const char* k : {"image_potential", "relative_permittivity"})
+            if (b[k]) c.origin[std::string("barrier.") + k] = origin_of(r, b[k]);
     }
     if (root["temperature"]) c.model.temperature_K = r.quantity(root["temperature"], "temperature", dimension::temperature);
-    if (root["method"]) {
-        std::string v = r.scalar(root["method"], "method");
-        if (!from_string(v, c.model.method)) {
-            throw_input(r.at(root["method"], "method"), fmt::format("{} is not a method; expected {}", quote_input(v), accepted_names<method_kind>()));
-        }
-    }
+    if (root["method"]) read_enum(r, root["method"], "method", "a method", c.model.method);
     if (root["tolerance"]) c.model.rel_tol = r.quantity(root["tolerance"], "tolerance", dimension::dimensionless);
     if (root["bias_limit"]) c.model.bias_limit_V = r.quantity(root["bias_limit"], "bias_limit", dimension::voltage);
-    if (auto g = root["geometry"]) {
-        r.require_map(g, "geometry");
-        r.check_keys(g, "geometry", {"kind", "area", "apex_radius", "contact_distance"});
-        if (g["kind"]) {
-            std::string v = r.scalar(g["kind"], "geometry.kind");
-            if (!from_string(v, c.geometry.kind)) {
-                throw_input(r.at(g["kind"], "geometry.kind"),
-                            fmt::format("{} is not a geometry; expected {}", quote_input(v), accepted_names<geometry_kind>()));
-            }
-        }
-        if (g["area"]) c.geometry.area_m2 = r.quantity(g["area"], "geometry.area", dimension::area);
-        if (g["apex_radius"]) {
-            uncertain u = r.uncertain_quantity(g["apex_radius"], "geometry.apex_radius", dimension::length);
-            c.geometry.apex_radius_m = u.value;
-            c.sigma.apex_radius_m = u.sigma;
-        }
-        if (g["contact_distance"]) {
-            c.geometry.contact_distance_m = r.quantity(g["contact_distance"], "geometry.contact_distance", dimension::length);
-        }
-    }
+    for (const char* k : {"temperature", "method", "tolerance", "bias_limit"})
+        if (root[k]) c.origin[k] = origin_of(r, root[k]);
+    if (auto g = root["geometry"]) read_geometry(r, g, c);
     validate_at(r, root, [&] { c.model.validate(); });
     validate_at(r, root, [&] { c.geometry.validate(); });
     return c;
@@ -253,11 +265,19 @@ YAML::Node load_yaml(std::string_view text, const std::string& name) {
     }
 }
 
-}  // namespace
+// The built-in default: configs/default.yaml over an empty config, every origin "built-in default".
+const config& builtin_default() {
+    static const config c = [] {
+        config d = parse_root(load_yaml(embedded::default_yaml, "<default>"), "<default>", config{});
+        for (auto& [key, where] : d.origin) where = "built-in default";
+        return d;
+    }();
+    return c;
+}
 
-config parse_config(std::string_view text, const std::string& name) {
+config parse_over(std::string_view text, const std::string& name, const config& base) {
     try {
-        return parse_root(load_yaml(text, name), name);
+        return parse_root(load_yaml(text, name), name, base);
     } catch (const YAML::Exception& e) {
         location w;
         w.file = name;
@@ -269,6 +289,10 @@ config parse_config(std::string_view text, const std::string& name) {
     }
 }
 
+}  // namespace
+
+config parse_config(std::string_view text, const std::string& name) { return parse_over(text, name, builtin_default()); }
+
 config load_config(const std::string& path) {
     // A configuration is a few hundred bytes. yaml-cpp builds a node tree of many times the file's
     // size, so a file far beyond any configuration (a data file given by mistake, /dev/zero) is
@@ -276,7 +300,7 @@ config load_config(const std::string& path) {
     return parse_config(detail::read_capped(path, detail::config_cap_bytes, false, "a configuration"), path);
 }
 
-config default_config() { return parse_config(embedded::default_yaml, "<default>"); }
+config default_config() { return builtin_default(); }
 
 std::vector<material_entry> all_materials() {
     static const std::vector<material_entry> list = [] {
@@ -288,6 +312,8 @@ std::vector<material_entry> all_materials() {
             m.work_function_J = parse_quantity(kv.second["work_function"].Scalar(), dimension::energy);
             m.fermi_energy_J = parse_quantity(kv.second["fermi_energy"].Scalar(), dimension::energy);
             m.source = kv.second["source"].Scalar();
+            if (const YAML::Node a = kv.second["aliases"])
+                for (const auto& x : a) m.aliases.push_back(x.Scalar());
             out.push_back(m);
         }
         return out;
@@ -295,11 +321,27 @@ std::vector<material_entry> all_materials() {
     return list;
 }
 
+namespace {
+// "Pt-Ir" -> "ptir": lower case without '-', '_', '/' and spaces.
+std::string material_key(std::string_view name) {
+    std::string out;
+    for (char ch : name) {
+        if (ch == '-' || ch == '_' || ch == '/' || ch == ' ') continue;
+        out += (ch >= 'A' && ch <= 'Z') ? static_cast<char>(ch - 'A' + 'a') : ch;
+    }
+    return out;
+}
+}  // namespace
+
 material_entry find_material(const std::string& name, const location& where) {
     std::string names;
+    const std::string key = material_key(name);
     for (const auto& m : all_materials()) {
-        if (m.name == name) return m;
+        if (material_key(m.name) == key) return m;
+        for (const auto& a : m.aliases)
+            if (material_key(a) == key) return m;
         names += (names.empty() ? "" : ", ") + m.name;
+        if (!m.aliases.empty()) names += fmt::format(" ({})", fmt::join(m.aliases, ", "));
     }
     throw_input(where, fmt::format("unknown material {}; expected one of the materials library: {}", quote_input(name), names));
 }

@@ -10,6 +10,7 @@
 
 #include "figures/detail/current_unit.hpp"
 #include "tipgap/core/constants.hpp"
+#include "tipgap/io/columns.hpp"
 
 namespace tipgap {
 namespace {
@@ -135,8 +136,8 @@ plot::xy_panel current_panel(const curve_sweep& sweep, const fit_result& fit, co
         s.x.push_back(sweep.z_m[i] * per_nm);
         s.y.push_back(std::log10(a) + shift);
     }
-    plot::series line{{}, {}, fmt::format("{} fit: φ_ap = {:.3f} ± {:.3f} eV", to_string(fit.model),
-                                          fit.apparent_barrier_J / eV, fit.apparent_barrier_stderr_J / eV),
+    plot::series line{{}, {}, fmt::format("{} fit: φ_ap = {} eV", to_string(fit.model),
+                                          with_uncertainty(fit.apparent_barrier_J / eV, fit.apparent_barrier_stderr_J / eV)),
                       plot::draw_style::line, 1};
     for (std::size_t k = 0; k < c.z_m.size(); ++k) {
         line.x.push_back(c.z_m[k] * per_nm);
@@ -203,8 +204,8 @@ plot::xy_panel profile_panel(const fit_result& fit) {
 void add_model(const curve_sweep& sweep, const fit_result& fit, const model_fit_result& model, double shift,
                plot::xy_panel& top, plot::xy_panel& mid, plot::xy_panel& bottom) {
     const double eV = si::electron_volt;
-    plot::series m{{}, {}, fmt::format("model fit: mean work function {:.3f} ± {:.3f} eV", model.mean_work_function_J / eV,
-                                       model.mean_work_function_stderr_J / eV),
+    plot::series m{{}, {}, fmt::format("model fit: mean work function {} eV", with_uncertainty(model.mean_work_function_J / eV,
+                                                                                    model.mean_work_function_stderr_J / eV)),
                    plot::draw_style::line, 2};
     plot::series mr{{}, {}, "data − model", plot::draw_style::markers, 2};
     plot::series mp{{}, {}, "model φ_ap(z)", plot::draw_style::line, 2};

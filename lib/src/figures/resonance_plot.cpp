@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include "tipgap/core/constants.hpp"
+#include "tipgap/io/columns.hpp"
 
 namespace tipgap {
 
@@ -38,7 +39,7 @@ plot::figure make_resonance_figure(const bias_trace& t, const resonance_result& 
     if (!r.model_smoothed.empty()) peak_panel.lines.push_back({r.bias_V, scaled(r.model_smoothed), "model", plot::draw_style::line, 1});
     for (const resonance_peak& p : r.peaks) {
         peak_panel.references.push_back(
-            {plot::orientation::vertical, p.bias_V, fmt::format("n = {}: {:.3f} ± {:.3f} V", p.order, p.bias_V, p.bias_stderr_V)});
+            {plot::orientation::vertical, p.bias_V, fmt::format("n = {}: {} V", p.order, with_uncertainty(p.bias_V, p.bias_stderr_V))});
     }
     peak_panel.legend = plot::legend_position::top_left;
 

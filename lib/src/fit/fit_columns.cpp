@@ -78,16 +78,16 @@ using f = fitted_sweep;
 std::vector<column<f>> slope_columns() {
     std::vector<column<f>> out = {
         {"decay_constant_per_nm", "kappa [1/nm]", [](const f& x) { return x.result.decay_constant_per_m; }, to_per_nm, fixed(3), everywhere, nullptr, "", 12},
-        {"decay_constant_stderr_per_nm", "+-", [](const f& x) { return x.result.decay_constant_stderr_per_m; }, to_per_nm, fixed(3), everywhere, nullptr, "", 7},
+        {"decay_constant_stderr_per_nm", "+-", [](const f& x) { return x.result.decay_constant_stderr_per_m; }, to_per_nm, {number_style::significant, 2}, everywhere, nullptr, "", 7},
         {"decay_constant_stat_stderr_per_nm", "", [](const f& x) { return x.result.decay_constant_stat_stderr_per_m; }, to_per_nm, {}, in_json},
         {"decay_constant_ci_low_per_nm", "", [](const f& x) { return x.result.decay_constant_ci_low_per_m; }, to_per_nm, {}, in_data},
         {"decay_constant_ci_high_per_nm", "", [](const f& x) { return x.result.decay_constant_ci_high_per_m; }, to_per_nm, {}, in_data},
         {"apparent_barrier_eV", "phi_ap [eV]", [](const f& x) { return x.result.apparent_barrier_J; }, to_eV, fixed(3), everywhere, nullptr, "", 11},
-        {"apparent_barrier_stderr_eV", "+-", [](const f& x) { return x.result.apparent_barrier_stderr_J; }, to_eV, fixed(3), everywhere, nullptr, "", 6},
+        {"apparent_barrier_stderr_eV", "+-", [](const f& x) { return x.result.apparent_barrier_stderr_J; }, to_eV, {number_style::significant, 2}, everywhere, nullptr, "", 6},
         {"apparent_barrier_ci", "95% CI [eV]",
          [](const f& x) {
              const double eV = si::electron_volt;
-             return fmt::format("{:.2f} - {:.2f}", x.result.apparent_barrier_ci_low_J / eV, x.result.apparent_barrier_ci_high_J / eV);
+             return interval_text(x.result.apparent_barrier_ci_low_J / eV, x.result.apparent_barrier_ci_high_J / eV);
          },
          {}, {}, in_table, nullptr, "", 15},
         {"apparent_barrier_ci_low_eV", "", [](const f& x) { return x.result.apparent_barrier_ci_low_J; }, to_eV, {}, in_data},

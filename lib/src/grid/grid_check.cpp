@@ -66,14 +66,20 @@ void throw_on_repeat(const std::vector<pixel_run>& runs, const std::vector<std::
                             format_pixel(r.x_m, r.y_m), describe(runs[first_of_repeat], files)));
 }
 
-void throw_on_unequal_counts(const std::vector<pixel_run>& runs, const std::vector<std::string>& files) {
+// The hint of an error that an aborted acquisition gives.
+constexpr const char* partial_hint = "; if the acquisition was aborted, 'tipgap map --partial' maps the pixels that are there";
+
+void throw_on_unequal_counts(const std::vector<pixel_run>& runs, const std::vector<std::string>& files, bool partial) {
     for (const pixel_run& r : runs) {
+        // An aborted acquisition cuts its last pixel short.
+        if (partial && &r == &runs.back() && r.samples < runs.front().samples) continue;
         if (r.samples != runs.front().samples) {
             throw_input(where_of(r, files),
                         fmt::format("pixel {} has {} samples; the first pixel ({}) has {}; every pixel needs the "
                                     "same number{}",
                                     format_pixel(r.x_m, r.y_m), r.samples, describe(runs.front(), files),
-                                    runs.front().samples, &r == &runs.back() ? " (is the file cut short?)" : ""));
+                                    runs.front().samples,
+                                    &r == &runs.back() ? std::string(" (is the file cut short?)") + partial_hint : ""));
         }
     }
 }
@@ -108,14 +114,14 @@ std::vector<double> distinct(const std::vector<pixel_run>& runs, double pixel_ru
     }
     throw_input(location{files.front(), 0, 0, ""},
                 fmt::format("the pixels do not fill a grid: {} pixels for {} x values times {} y values; pixel {} "
-                            "is missing (is the file cut short?)",
-                            runs.size(), xs.size(), ys.size(), format_pixel(hole_x, hole_y)));
+                            "is missing (is the file cut short?){}",
+                            runs.size(), xs.size(), ys.size(), format_pixel(hole_x, hole_y), partial_hint));
 }
 
 }  // namespace
 
 void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::string>& files, bool equal_counts,
-                grid_layout& layout) {
+                grid_layout& layout, bool partial) {
     if (runs.empty()) {
         throw_input(location{files.empty() ? layout.path : files.front(), 0, 0, ""},
                     "no data rows after the header; expected one row per sample such as '0,0,0.01,812.5' under "
@@ -123,12 +129,13 @@ void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::strin
     }
     const std::vector<std::size_t> order = by_position(runs);
     throw_on_repeat(runs, order, files);
-    if (equal_counts) throw_on_unequal_counts(runs, files);
+    if (equal_counts) throw_on_unequal_counts(runs, files, partial);
     std::vector<double> xs = distinct(runs, &pixel_run::x_m), ys = distinct(runs, &pixel_run::y_m);
-    if (xs.size() * ys.size() != runs.size()) throw_hole(runs, order, xs, ys, files);
+    if (xs.size() * ys.size() != runs.size() && !partial) throw_hole(runs, order, xs, ys, files);
+    layout.missing = xs.size() * ys.size() - runs.size();
     layout.x_m = std::move(xs);
     layout.y_m = std::move(ys);
-    layout.pixels = runs.size();
+    layout.pixels = layout.x_m.size() * layout.y_m.size();
 }
 
 }  // namespace detail

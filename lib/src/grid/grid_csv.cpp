@@ -638,7 +638,12 @@ private:
             remainder_.assign(data + end, data + filled);
         } else {
             remainder_.clear();
-            if (filled > begin && buf[filled - 1] != '\n') ends_with_newline_ = false;
+            if (filled > begin && buf[filled - 1] != '\n') {
+                ends_with_newline_ = false;
+                // An aborted acquisition may stop inside a row: leave that row out.
+                const void* last_nl = options_.partial ? ::memrchr(buf.get() + begin, '\n', filled - begin) : nullptr;
+                if (last_nl) end = static_cast<std::size_t>(static_cast<const char*>(last_nl) - buf.get()) + 1;
+            }
         }
         queue(std::move(buf), begin, end);
     }
@@ -716,11 +721,12 @@ grid_layout read_grid_csv(const std::string& path, const grid_read_options& opti
     layout.samples = stream.run(std::move(first), pre.data_offset, got, eof, pre.header.line + 1);
     layout.bytes = file.total;
     if (!stream.ends_with_newline()) {
-        layout.warnings.push_back("the file does not end with a line end; if it was cut short, its last value may be "
-                                  "incomplete");
+        layout.warnings.push_back(options.partial ? "the file does not end with a line end: its last, unfinished row is left out"
+                                                  : "the file does not end with a line end; if it was cut short, its "
+                                                    "last value may be incomplete");
     }
     const std::vector<std::string> files{path};
-    check_grid(joiner.runs(), files, true, layout);
+    check_grid(joiner.runs(), files, true, layout, options.partial);
     refuse_rising_current(orientation, layout, ro.flip_z);
     return layout;
 }

@@ -180,7 +180,7 @@ grid_layout read_grid_directory(const std::string& path, const grid_read_options
     if (options.progress) options.progress(total, total);
     for (const pixel_run& r : runs) layout.samples += r.samples;
     layout.bytes = total;
-    check_grid(runs, files, false, layout);
+    check_grid(runs, files, false, layout, options.partial);
     return layout;
 }
 

@@ -162,7 +162,7 @@ void place_records(barrier_map& out, const std::vector<std::unique_ptr<slot_stat
     out.apparent_barrier_stderr_J.assign(n, nan);
     out.r_squared.assign(n, nan);
     out.points_used.assign(n, 0);
-    out.quality.assign(n, pixel_quality::too_few_points);
+    out.quality.assign(n, pixel_quality::missing);  // a node without a record: not in the file
     for (const auto& st : state) {
         for (const pixel_record& p : st->records) {
             // read_grid has checked that every position is a grid node, once.

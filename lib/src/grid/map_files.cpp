@@ -104,6 +104,7 @@ const std::vector<column<barrier_map>>& grid_columns() {
         {"nx", "", [](const b& m) { return m.nx; }},
         {"ny", "", [](const b& m) { return m.ny; }},
         {"pixels", "", [](const b& m) { return m.grid.pixels; }},
+        {"missing_pixels", "", [](const b& m) { return m.grid.missing; }},
         {"samples", "", [](const b& m) { return m.grid.samples; }},
         {"bytes", "", [](const b& m) { return m.grid.bytes; }},
         {"x_min_nm", "", [](const b& m) { return m.grid.x_m.front(); }, to_nm},

@@ -82,6 +82,53 @@ std::string significant(double v, int digits) {
     return fmt::format("{:.{}e}", v, digits - 1);
 }
 
+namespace {
+// The power of ten of the second significant digit of u > 0 after rounding u to two digits
+// (0.0123 -> -3; 9.96 -> rounds to 10 -> 0).
+int second_digit_place(double u) {
+    int e = static_cast<int>(std::floor(std::log10(u)));
+    if (std::round(u / std::pow(10.0, e - 1)) >= 100) ++e;
+    return e - 1;
+}
+}  // namespace
+
+std::string with_uncertainty(double v, double u) {
+    if (!(std::isfinite(u) && u > 0) || !std::isfinite(v)) {
+        std::string s = significant(v, 4);
+        return u == 0.0 ? s + " ± 0" : s;
+    }
+    const int place = second_digit_place(u);  // u and v are rounded to 10^place
+    const double unit = std::pow(10.0, place);
+    const double ur = std::round(u / unit) * unit, vr = std::round(v / unit) * unit;
+    const double largest = std::max(std::abs(vr), ur);
+    if (place >= -6 && largest < 1e7) return fmt::format("{:.{}f} ± {:.{}f}", vr, std::max(0, -place), ur, std::max(0, -place));
+    // Very small or large: a shared power of ten.
+    const int p = static_cast<int>(std::floor(std::log10(largest)));
+    const double scale = std::pow(10.0, p);
+    const int decimals = std::max(0, p - place);
+    return fmt::format("({:.{}f} ± {:.{}f})e{:+03d}", vr / scale, decimals, ur / scale, decimals, p);
+}
+
+std::string interval_text(double lo, double hi) {
+    const double half = 0.5 * std::abs(hi - lo);
+    if (!(std::isfinite(lo) && std::isfinite(hi) && half > 0) || std::max(std::abs(lo), std::abs(hi)) >= 1e7)
+        return significant(lo, 4) + " – " + significant(hi, 4);
+    // The ends to the place of two significant digits of the half width (at most 15 decimals).
+    const int decimals = std::clamp(-second_digit_place(half), 0, 15);
+    return fmt::format("{:.{}f} – {:.{}f}", lo, decimals, hi, decimals);
+}
+
+std::pair<double, std::string> reading_prefix(double largest, double smallest) {
+    static const std::pair<double, const char*> prefixes[] = {{1e-15, "f"}, {1e-12, "p"}, {1e-9, "n"}, {1e-6, "µ"},
+                                                              {1e-3, "m"},  {1.0, ""},    {1e3, "k"},  {1e6, "M"},
+                                                              {1e9, "G"}};
+    if (!(std::isfinite(largest) && largest > 0)) return {1.0, ""};
+    std::pair<double, std::string> out{0.0, ""};
+    for (const auto& [f, p] : prefixes)
+        if (f >= smallest * (1 - 1e-12) && (out.first == 0.0 || largest >= f * (1 - 1e-12))) out = {f, p};
+    return out;
+}
+
 std::string csv_text(const cell& c) {
     return std::visit(
         [](const auto& v) -> std::string {
@@ -109,14 +156,10 @@ std::string table_text(const cell& c, const table_number& n, const std::string& 
             using V = std::decay_t<decltype(v)>;
             if constexpr (std::is_same_v<V, double>) {
                 const bool fix = n.style == number_style::fixed;
-                // The spread to 2 significant digits, or to the value's decimals; never "± 0.000":
-                // a spread that would round to zero gets 2 significant digits and the value as many
-                // decimals.
-                int decimals = n.digits;
-                if (fix && !std::isnan(spread) && spread > 0.0 && spread < 0.5 * std::pow(10.0, -n.digits))
-                    decimals = std::min(15, 1 - static_cast<int>(std::floor(std::log10(spread))));
-                std::string s = fix ? fixed_text(v, decimals) : significant(v, n.digits);
-                if (!std::isnan(spread)) s += " ± " + (fix ? fixed_text(spread, decimals) : significant(spread, 2));
+                // With a spread: two significant digits of it, the value rounded to match.
+                if (!std::isnan(spread) && spread != 0.0) return with_uncertainty(v, spread);
+                std::string s = fix ? fixed_text(v, n.digits) : significant(v, n.digits);
+                if (spread == 0.0) s += " ± 0";
                 return s;
             } else if constexpr (std::is_same_v<V, std::int64_t> || std::is_same_v<V, std::uint64_t>) {
                 return fmt::format("{}", v);

@@ -26,6 +26,8 @@ void plan_options::validate() const {
     if (!(gap_tol_m >= 0 && std::isfinite(gap_tol_m))) bad("gap_tol", "must be >= 0");
     if (max_evaluations < 4 || max_evaluations > 200) bad("max_evaluations", "must be in [4, 200]");
     if (!(slope_step_m > 0 && slope_step_m <= 0.1e-9)) bad("slope_step", "must be in (0, 0.1 nm]");
+    if (!std::isnan(reference_bias_V) && !(std::isfinite(reference_bias_V) && reference_bias_V != 0))
+        bad("reference_bias", "must be a non-zero bias");
 }
 
 std::string unreachable_warning(solve_status status, double gap_min_m, double gap_max_m) {

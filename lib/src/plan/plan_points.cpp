@@ -1,4 +1,5 @@
 // One planned setpoint with its instrument-facing quantities, and many setpoints in parallel.
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 #include <limits>
@@ -55,12 +56,54 @@ plan_point plan_setpoint_from(const config& c, double current_A, double bias_V, 
 
 }  // namespace detail
 
+namespace {
+
+plan_point zero_bias_point(double current_A) {
+    plan_point p;
+    p.setpoint_A = current_A;
+    p.bias_V = 0.0;
+    p.solution.status = solve_status::zero_bias;
+    p.solution.message = "no current flows at 0 V, so no gap holds a setpoint; the point is kept without a gap";
+    p.note = p.solution.message;
+    return p;
+}
+
+// dz_m of every point: its gap minus the gap at the reference bias for the same current (solved
+// again only when the setpoints do not hold that bias).
+void set_heights(const config& c, std::vector<plan_point>& out, const plan_options& o) {
+    double ref = o.reference_bias_V;
+    for (std::size_t i = 0; std::isnan(ref) && i < out.size(); ++i)
+        if (out[i].bias_V != 0) ref = out[i].bias_V;
+    if (std::isnan(ref)) return;
+    std::vector<std::pair<double, double>> known;  // (|current|, gap at ref)
+    for (plan_point& p : out) {
+        const double I = std::abs(p.setpoint_A);
+        double gap = std::numeric_limits<double>::quiet_NaN();
+        bool found = false;
+        for (const auto& [k, g] : known)
+            if (k == I) gap = g, found = true;
+        if (!found) {
+            for (const plan_point& q : out)
+                if (std::abs(q.setpoint_A) == I && q.bias_V == ref) gap = q.solution.gap_m, found = true;
+            if (!found) gap = plan_setpoint(c, I, ref, o).solution.gap_m;
+            known.emplace_back(I, gap);
+        }
+        p.dz_m = p.solution.gap_m - gap;
+    }
+}
+
+}  // namespace
+
 std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::pair<double, double>>& setpoints,
                                        const plan_options& o, int threads) {
     o.validate();
     std::vector<plan_point> out(setpoints.size());
-    detail::parallel_for(setpoints.size(), threads,
-                 [&](std::size_t i) { out[i] = plan_setpoint(c, setpoints[i].first, setpoints[i].second, o); });
+    // Only zero biases: the request itself is wrong (solve_gap says why); else 0 V points are kept.
+    const bool some_nonzero = std::any_of(setpoints.begin(), setpoints.end(), [](const auto& p) { return p.second != 0.0; });
+    detail::parallel_for(setpoints.size(), threads, [&](std::size_t i) {
+        const auto [I, V] = setpoints[i];
+        out[i] = V == 0.0 && some_nonzero && std::isfinite(I) && I != 0 ? zero_bias_point(I) : plan_setpoint(c, I, V, o);
+    });
     std::size_t reachable = 0;
     for (const auto& p : out) reachable += p.reachable();
     if (!out.empty() && reachable == 0) {
@@ -71,6 +114,7 @@ std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::p
                                              out.size(), first.setpoint_A, first.bias_V, first.solution.message);
         throw error(error_kind::no_answer, what);
     }
+    set_heights(c, out, o);
     return out;
 }
 

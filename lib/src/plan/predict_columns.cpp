@@ -10,10 +10,10 @@ const std::vector<column<prediction>>& prediction_columns() {
     constexpr scaling to_nm = times(1e9), to_per_nm = times(1e-9), to_eV = divided_by(si::electron_volt);
     static const std::vector<column<p>> columns = {
         {"gap_nm", "gap [nm]", [](const p& x) { return x.q.gap_m; }, to_nm},
-        {"bias_V", "bias [V]", [](const p& x) { return x.q.bias_V; }},
+        {.key = "bias_V", .label = "bias", .get = [](const p& x) { return x.q.bias_V; }, .reading_unit = "V"},
         {.key = "temperature_K", .get = [](const p& x) { return x.q.temperature_K; }, .shown = in_data},
         {"current_density_A_per_m2", "J [A/m²]", [](const p& x) { return x.q.current_density_A_per_m2; }},
-        {"current_A", "I [A]", [](const p& x) { return x.current_A; }},
+        {.key = "current_A", .label = "I", .get = [](const p& x) { return x.current_A; }, .reading_unit = "A"},
         {.key = "conductance_S", .get = [](const p& x) { return x.conductance_S; }, .shown = in_data},
         {"conductance_G0", "G [G0]", [](const p& x) { return x.conductance_G0; }},
         {.key = "differential_conductance_density_S_per_m2",

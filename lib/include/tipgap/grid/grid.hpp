@@ -60,6 +60,10 @@ struct grid_read_options {
     // Delimiter, columns (x, y, z, current), units, z orientation, bias and temperature; for a
     // directory, applied to every curve file (tipgap/io/reader_options.hpp).
     reader_options reader;
+    // An aborted acquisition: pixels missing from the grid are counted (grid_layout::missing)
+    // instead of refused, the last pixel in file order may have fewer samples than the first, and
+    // a long CSV's last line without a line end is left out (a warning says so).
+    bool partial = false;
 };
 
 // What was read.
@@ -72,6 +76,7 @@ struct grid_layout {
     std::vector<double> x_m;               // distinct x values, ascending, m
     std::vector<double> y_m;               // distinct y values, ascending, m
     std::size_t pixels = 0;                // x_m.size() * y_m.size()
+    std::size_t missing = 0;               // grid nodes without a pixel (only with options.partial)
     std::uint64_t samples = 0;             // rows (or points) read in all
     std::uint64_t bytes = 0;               // bytes read
     std::vector<std::string> warnings;     // e.g. a missing line end at the end of the file

@@ -28,15 +28,17 @@ enum class pixel_quality : std::uint8_t {
                          // less than map_options::min_current_decades, a relative standard error
                          // of φ_ap above map_options::max_relative_stderr, or the offset model
                          // did not converge
+    missing = 5,         // no curve in the file: a grid node of an aborted acquisition (--partial)
 };
-inline constexpr std::size_t pixel_quality_count = 5;
+inline constexpr std::size_t pixel_quality_count = 6;
 template <>
 struct enum_names<pixel_quality> {
     static constexpr enum_name<pixel_quality> table[] = {{pixel_quality::ok, "ok"},
                                                          {pixel_quality::too_few_points, "too_few_points"},
                                                          {pixel_quality::saturated, "saturated"},
                                                          {pixel_quality::contact, "contact"},
-                                                         {pixel_quality::poor_fit, "poor_fit"}};
+                                                         {pixel_quality::poor_fit, "poor_fit"},
+                                                         {pixel_quality::missing, "missing"}};
 };
 // Precedence when several codes apply: too_few_points, poor_fit, contact, saturated, ok.
 

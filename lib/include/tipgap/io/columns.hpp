@@ -6,6 +6,7 @@
 //
 // The values are library types (cell, record), not a JSON library's: the CLI turns them into text
 // here (json_text), and the Python module turns the same records into dicts with the same keys.
+#include <cmath>
 #include <concepts>
 #include <cstdint>
 #include <functional>
@@ -102,6 +103,10 @@ struct column {
     std::string none = "";  // table text of a null or absent value
     int width = 0;          // table width for fixed layouts (0: as wide as the widest cell)
     bool left = false;      // left-aligned in the table
+    // Table only: the SI unit ("A", "Ω", "V", "m") of the getter's values (and of the spread). The
+    // table then ignores `scale`, picks a prefix for reading (pA, nA, µA; mV; pm, nm) from the
+    // column's largest magnitude and labels it "<label> [<prefix><unit>]".
+    std::string reading_unit = "";
 };
 
 // How a table is laid out: a dashed rule under the header or not. Columns are as wide as their
@@ -120,6 +125,17 @@ std::string csv_text(const cell& c);
 std::string table_text(const cell& c, const table_number& n, const std::string& none, double spread);
 // `digits` significant digits, fixed notation between 1e-3 and 1e6: "0.1235", "1.235e-09", "NaN".
 std::string significant(double v, int digits = 4);
+// "value ± sigma" with sigma to two significant digits and the value rounded to the same decimal
+// place ("4.413 ± 0.012", "12350 ± 680", "(1.0002 ± 0.0013)e-09"); a non-zero sigma never prints
+// as zero. sigma not finite or <= 0: the value alone with 4 significant digits (sigma 0: "± 0").
+std::string with_uncertainty(double value, double sigma);
+// "lo – hi" of an interval, both ends to the decimal place of two significant digits of its half
+// width, so that the ends of a narrow interval differ ("4.398 – 4.427").
+std::string interval_text(double lo, double hi);
+// The factor (1e-12, 1e-9, ...) and prefix ("f", "p", "n", "µ", "m", "", "k", "M", "G") that show
+// `largest` (>= 0) between 1 and 1000, the factor at least `smallest` (1e-15; lengths 1e-12: no
+// femtometres at an STM); 1 and "" for 0 or non-finite.
+std::pair<double, std::string> reading_prefix(double largest, double smallest = 1e-15);
 // A CSV field quoted when it holds a comma, quote or line break (RFC 4180).
 std::string csv_quote(const std::string& s);
 
@@ -150,15 +166,30 @@ std::string fill_pattern(std::string_view pattern, const std::vector<std::pair<s
 template <class T, class Rows>
 std::string format_table(const std::vector<column<T>>& columns, const Rows& rows, const table_layout& layout = {}) {
     std::vector<table_column_format> head;
-    for (const column<T>& c : columns)
-        if (c.shown & in_table) head.push_back({c.label, c.width, c.left});
+    std::vector<double> factor;  // reading-unit factor of each column (1: none)
+    for (const column<T>& c : columns) {
+        if (!(c.shown & in_table)) continue;
+        if (c.reading_unit.empty()) {
+            head.push_back({c.label, c.width, c.left});
+            factor.push_back(1.0);
+            continue;
+        }
+        double largest = 0;
+        for (const T& row : rows)
+            if (const cell v = c.get(row); const double* x = std::get_if<double>(&v.value))
+                if (std::isfinite(*x)) largest = std::max(largest, std::abs(*x));
+        const auto [f, prefix] = reading_prefix(largest, c.reading_unit == "m" ? 1e-12 : 1e-15);
+        head.push_back({c.label + " [" + prefix + c.reading_unit + "]", c.width, c.left});
+        factor.push_back(f);
+    }
     std::vector<std::vector<std::string>> text;
     for (const T& row : rows) {
         std::vector<std::string>& line = text.emplace_back();
         for (const column<T>& c : columns) {
             if (!(c.shown & in_table)) continue;
-            const double spread = c.spread ? c.spread(row) : std::numeric_limits<double>::quiet_NaN();
-            line.push_back(table_text(scaled(c.get(row), c.scale), c.number, c.none, spread));
+            const double f = factor[line.size()];
+            const double spread = c.spread ? c.spread(row) / f : std::numeric_limits<double>::quiet_NaN();
+            line.push_back(table_text(scaled(c.get(row), f == 1.0 ? c.scale : divided_by(f)), c.number, c.none, spread));
         }
     }
     return render_table(head, text, layout);
@@ -231,7 +262,7 @@ std::vector<column<R>> part_columns(const std::vector<column<P>>& part, F part_o
     std::vector<column<R>> out;
     for (const column<P>& c : part) {
         column<R> r{c.key, c.label, [g = c.get, part_of](const R& row) { return g(part_of(row)); }, c.scale, c.number,
-                    c.shown, {}, c.none, c.width, c.left};
+                    c.shown, {}, c.none, c.width, c.left, c.reading_unit};
         if (c.spread) r.spread = [s = c.spread, part_of](const R& row) { return s(part_of(row)); };
         out.push_back(std::move(r));
     }

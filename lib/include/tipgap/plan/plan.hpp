@@ -31,6 +31,9 @@ struct plan_options {
     // Formerly the central-difference step for d ln|I|/ds (m), (0, 0.1 nm]. Unused since the slope
     // comes with each model evaluation; still validated so that existing callers keep working.
     double slope_step_m = 0.01e-9;
+    // Bias (V) whose gap is the zero of plan_point::dz_m for the same setpoint current; NaN: the
+    // first non-zero bias of the setpoints. Finite and non-zero when given.
+    double reference_bias_V = std::numeric_limits<double>::quiet_NaN();
 
     // Throws tipgap::error (input) naming the field when a value is out of range.
     void validate() const;
@@ -41,13 +44,15 @@ enum class solve_status {
     current_too_high,  // even at gap_min_m the current is below the setpoint
     current_too_low,   // even at gap_max_m the current is above the setpoint
     not_converged,     // max_evaluations used up (gap_m is the best point found)
+    zero_bias,         // a bias of exactly 0 V: no current flows, so no gap holds a setpoint
 };
 template <>
 struct enum_names<solve_status> {
     static constexpr enum_name<solve_status> table[] = {{solve_status::converged, "converged"},
                                                         {solve_status::current_too_high, "current_too_high"},
                                                         {solve_status::current_too_low, "current_too_low"},
-                                                        {solve_status::not_converged, "not_converged"}};
+                                                        {solve_status::not_converged, "not_converged"},
+                                                        {solve_status::zero_bias, "zero_bias"}};
 };
 
 // Result of one gap solve.
@@ -89,6 +94,10 @@ struct plan_point {
     regime kind = regime::direct_tunnelling;
     std::vector<std::string> warnings;  // operating warnings, or the unreachable warning
     int evaluations = 0;                // total-current evaluations (the slope comes with them)
+    // Height relative to the gap at options.reference_bias_V for the same setpoint current (m): what
+    // an instrument records as Δz in a constant-current z(V) trace. NaN when either gap is unknown.
+    double dz_m = std::numeric_limits<double>::quiet_NaN();
+    std::string note;                   // why a point has no gap without being an error (zero bias)
     bool reachable() const { return solution.reachable(); }
     // The requested current with the sign of the bias (A): the sign of a setpoint is not used.
     double signed_setpoint_A() const { return std::copysign(std::abs(setpoint_A), bias_V); }
@@ -103,7 +112,9 @@ std::string unreachable_warning(solve_status status, double gap_min_m, double ga
 plan_point plan_setpoint(const config& c, double current_A, double bias_V, const plan_options& options = {});
 
 // Many setpoints: (current_A, bias_V) pairs, e.g. a constant-current trace z(V) or a current ladder.
-// threads: worker count (0 = all cores); results do not depend on it.
+// threads: worker count (0 = all cores); results do not depend on it. A bias of exactly 0 V (a
+// range through zero) is kept as a point with status zero_bias, NaN fields and a note; the others
+// are answered. dz_m of each point is set against options.reference_bias_V.
 // Throws tipgap::error (no_answer) when no setpoint is reachable, with the reason of the first one;
 // partial results keep unreachable points with NaN fields and a warning.
 std::vector<plan_point> plan_setpoints(const config& c, const std::vector<std::pair<double, double>>& setpoints,

@@ -20,8 +20,10 @@ struct pixel_run {
 // Checks that `runs` (in file order) fill a rectangular grid, each (x, y) exactly once, and (when
 // equal_counts) that every pixel has the first pixel's number of samples; fills layout.x_m,
 // layout.y_m and layout.pixels. files: the file of each file_index. Throws tipgap::error (input).
+// partial (grid_read_options::partial): holes are counted in layout.missing, and the last run may
+// have fewer samples than the first.
 void check_grid(const std::vector<pixel_run>& runs, const std::vector<std::string>& files, bool equal_counts,
-                grid_layout& layout);
+                grid_layout& layout, bool partial = false);
 
 // "(x = 3 nm, y = 5 nm)" for messages.
 std::string format_pixel(double x_m, double y_m);
