@@ -82,6 +82,8 @@ void print_read_options(const demo_report& r) {
             flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
         const std::string name = fs::path(d.curve->file).filename().string();
         if (!flags.empty()) fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", name, name, flags);
+        if (d.fit.model == fit_model::offset)
+            fmt::print("note: {} has an amplifier offset, fitted as: tipgap fit {} (the default offset model)\n", name, name);
     }
 }
 
@@ -102,12 +104,17 @@ void print_summary(const demo_report& r, const demo_options& o) {
     }
     fmt::print("\n");
     for (const plan_point& p : r.plan) print_warnings(p.warnings, fmt::format("plan {:.3g} A", p.setpoint_A));
-    fmt::print("\nfits of the synthetic curves in {} (as tipgap fit --model linear; truth: the synthesiser's expected kappa, the weighted line of the noise-free curve):\n", o.scans_dir);
+    fmt::print("\nfits of the synthetic curves in {} (as tipgap fit --model linear, or the model in the file's .fit.yaml; "
+               "truth: the synthesiser's expected kappa, the weighted line of the noise-free curve, without the baseline "
+               "for the offset model; no model comparison for offset-model fits, as it fits no offset):\n",
+               o.scans_dir);
     fmt::print("{}", format_table(demo_curve_columns(), r.curves));
     const demo_tally t = tally(r);
     fmt::print("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "
                "the image potential lowers the apparent barrier.\n",
                t.kappa_within, t.compared);
+    if (t.offsets_compared > 0)
+        fmt::print("offset inside its 95% interval for {} of {} offset-model fits.\n", t.offset_within, t.offsets_compared);
     if (!r.resonances.empty())
         fmt::print("\nfield-emission resonances of the synthetic z(V) traces (sample work function from the peaks; the "
                    "triangular-well formula ignores the image potential and reads low):\n{}",
