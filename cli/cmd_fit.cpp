@@ -41,9 +41,8 @@ std::string model_comparison(const std::vector<fitted_sweep>& all) {
         if (!f.model) continue;
         out += fmt::format("  {} ({}): ", f.curve->file, to_string(f.result.direction)) +
                format_line(model_fit_columns(), *f.model,
-                           "mean work function {mean_work_function_eV} +- {mean_work_function_stderr_eV} eV, gap = z + "
-                           "{gap_offset_nm} +- {gap_offset_stderr_nm} nm (gaps {gap_min_nm}..{gap_max_nm} nm), ln "
-                           "prefactor {ln_prefactor} +- {ln_prefactor_stderr}, {status}\n"
+                           "mean work function {mean_work_function_eV} eV, gap = z + {gap_offset_nm} nm (gaps "
+                           "{gap_min_nm}..{gap_max_nm} nm), ln prefactor {ln_prefactor}, {status}\n"
                            "    phi_ap {apparent_barrier_eV} eV is {work_function_minus_apparent_barrier_eV} eV below "
                            "the mean work function: the image potential lowers and rounds the barrier, so the apparent "
                            "barrier height is lower than the mean work function (the fitted model itself gives phi_ap "

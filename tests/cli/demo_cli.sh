@@ -137,7 +137,7 @@ PY
 # 5. fit --config: the comparison block and its physics sentence.
 grep -q "^model comparison (tunnelling model with image potential" "$tmp/fit.txt" || fail "no model comparison"
 grep -q "the image potential lowers and rounds the barrier, so the apparent barrier height is lower than the mean work function" "$tmp/fit.txt" || fail "no image-potential sentence"
-grep -Eq "mean work function 4\.9[0-9]{2} \+- 0\.00[0-9]+ eV" "$tmp/fit.txt" || { cat "$tmp/fit.txt"; fail "fitted work function of the clean curve"; }
+grep -Eq "mean work function 4\.9[0-9]{3} ± 0\.00[0-9]{2} eV" "$tmp/fit.txt" || { cat "$tmp/fit.txt"; fail "fitted work function of the clean curve"; }
 
 # 6. synth errors: exact messages and exit codes.
 set +e

@@ -92,7 +92,7 @@ EOF
 # Table: rounded, units in the header.
 "$TIPGAP" fit "$tmp/clean.csv" > "$tmp/out.txt"
 head -1 "$tmp/out.txt" | grep -q 'kappa \[1/nm\].*phi_ap \[eV\].*nm/decade' || fail "table header: $(head -1 "$tmp/out.txt")"
-grep -q 'clean.csv  retract   offset        10.000' "$tmp/out.txt" || fail "table row: $(sed -n 2p "$tmp/out.txt")"
+grep -Eq 'clean.csv  retract   offset  +10\.0000+ ± 0\.0+[1-9][0-9]?  ' "$tmp/out.txt" || fail "table row: $(sed -n 2p "$tmp/out.txt")"
 
 # --output: nothing on stdout, the file written whole.
 out=$("$TIPGAP" fit "$tmp/clean.csv" --format json --output "$tmp/written.json")

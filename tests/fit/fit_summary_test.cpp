@@ -46,3 +46,21 @@ TEST(fit_summary, approach_minus_retract_with_p_value) {
     EXPECT_EQ(s.decay_constant_per_m.count, 2u);
     EXPECT_NE(describe_summary(s).find("approach - retract"), std::string::npos);
 }
+
+// The text: each value with its error to two significant digits and rounded to match (issue 15),
+// and a p value below double resolution as "p < 1e-15", never "p = 0".
+TEST(fit_summary, text_rounds_values_to_their_errors_and_bounds_tiny_p_values) {
+    fit_summary s;
+    s.decay_constant_per_m = {.mean = 10.8034e9, .standard_error = 0.0011e9, .birge_ratio = 1.0, .spread = 0.002e9, .count = 3};
+    s.apparent_barrier_J = {.mean = 4.44312 * 1.602176634e-19, .standard_error = 0.00093 * 1.602176634e-19, .birge_ratio = 1.0,
+                            .spread = 0.0017 * 1.602176634e-19, .count = 3};
+    s.hysteresis_per_m = -0.266e9;
+    s.hysteresis_stderr_per_m = 0.0023e9;
+    s.hysteresis_p_value = 0.0;
+    s.approach_decay_per_m.count = 1;
+    s.retract_decay_per_m.count = 1;
+    const std::string t = describe_summary(s);
+    EXPECT_NE(t.find("kappa  10.8034 ± 0.0011 /nm"), std::string::npos) << t;
+    EXPECT_NE(t.find("phi_ap 4.44312 ± 0.00093 eV"), std::string::npos) << t;
+    EXPECT_NE(t.find("kappa -0.2660 ± 0.0023 /nm over 1 and 1 sweeps, p < 1e-15 (significant"), std::string::npos) << t;
+}

@@ -151,6 +151,7 @@ TEST(columns, uncertainty_has_two_digits_and_the_value_matches) {
     EXPECT_EQ(with_uncertainty(-2.5, 0.996), "-2.5 ± 1.0");
     EXPECT_EQ(with_uncertainty(1.0002e-9, 1.3e-12), "(1.0002 ± 0.0013)e-09");
     EXPECT_EQ(with_uncertainty(4.4, 0.0), "4.400 ± 0");
+    EXPECT_EQ(with_uncertainty(10.0, 1.6e-9), "10.0000000000 ± 0.0000000016");  // noise-free data
     EXPECT_EQ(interval_text(4.398, 4.4271), "4.398 – 4.427");
     EXPECT_EQ(interval_text(4.41, 4.41), "4.410 – 4.410");
 }

@@ -46,13 +46,17 @@ const std::vector<column<model_fit_result>>& model_fit_columns() {
     constexpr table_number s2 = {number_style::significant, 2};
     static const std::vector<column<m>> columns = {
         {"status", "", [](const m& x) { return to_string(x.status); }},
-        {"mean_work_function_eV", "", [](const m& x) { return x.mean_work_function_J; }, to_eV, d3},
+        // The values' spreads make format_line print "value ± error" rounded to the error.
+        {"mean_work_function_eV", "", [](const m& x) { return x.mean_work_function_J; }, to_eV, d3, everywhere,
+         [](const m& x) { return x.mean_work_function_stderr_J / si::electron_volt; }},
         {"mean_work_function_stderr_eV", "", [](const m& x) { return x.mean_work_function_stderr_J; }, to_eV, s2},
         {"tip_work_function_eV", "", [](const m& x) { return x.tip_work_function_J; }, to_eV, d3},
         {"sample_work_function_eV", "", [](const m& x) { return x.sample_work_function_J; }, to_eV, d3},
-        {"gap_offset_nm", "", [](const m& x) { return x.gap_offset_m; }, to_nm, d3},
+        {"gap_offset_nm", "", [](const m& x) { return x.gap_offset_m; }, to_nm, d3, everywhere,
+         [](const m& x) { return x.gap_offset_stderr_m * 1e9; }},
         {"gap_offset_stderr_nm", "", [](const m& x) { return x.gap_offset_stderr_m; }, to_nm, s2},
-        {"ln_prefactor", "", [](const m& x) { return x.ln_prefactor; }, {}, d3},
+        {"ln_prefactor", "", [](const m& x) { return x.ln_prefactor; }, {}, d3, everywhere,
+         [](const m& x) { return x.ln_prefactor_stderr; }},
         {"ln_prefactor_stderr", "", [](const m& x) { return x.ln_prefactor_stderr; }, {}, s2},
         {"correlation_work_function_gap", "", [](const m& x) { return x.correlation_work_function_gap; }, {}, d3},
         {"gap_min_nm", "", [](const m& x) { return x.gap_min_m; }, to_nm, d3},
@@ -77,13 +81,16 @@ using f = fitted_sweep;
 // The statistics of the fit: kappa, phi_ap, their errors and intervals, nm per decade, R^2.
 std::vector<column<f>> slope_columns() {
     std::vector<column<f>> out = {
-        {"decay_constant_per_nm", "kappa [1/nm]", [](const f& x) { return x.result.decay_constant_per_m; }, to_per_nm, fixed(3), everywhere, nullptr, "", 12},
-        {"decay_constant_stderr_per_nm", "+-", [](const f& x) { return x.result.decay_constant_stderr_per_m; }, to_per_nm, {number_style::significant, 2}, everywhere, nullptr, "", 7},
+        // Table: "value ± error", the error to 2 significant digits and the value rounded to match.
+        {"decay_constant_per_nm", "kappa [1/nm]", [](const f& x) { return x.result.decay_constant_per_m; }, to_per_nm, fixed(3), everywhere,
+         [](const f& x) { return x.result.decay_constant_stderr_per_m * 1e-9; }, "", 17},
+        {"decay_constant_stderr_per_nm", "", [](const f& x) { return x.result.decay_constant_stderr_per_m; }, to_per_nm, {}, in_data},
         {"decay_constant_stat_stderr_per_nm", "", [](const f& x) { return x.result.decay_constant_stat_stderr_per_m; }, to_per_nm, {}, in_json},
         {"decay_constant_ci_low_per_nm", "", [](const f& x) { return x.result.decay_constant_ci_low_per_m; }, to_per_nm, {}, in_data},
         {"decay_constant_ci_high_per_nm", "", [](const f& x) { return x.result.decay_constant_ci_high_per_m; }, to_per_nm, {}, in_data},
-        {"apparent_barrier_eV", "phi_ap [eV]", [](const f& x) { return x.result.apparent_barrier_J; }, to_eV, fixed(3), everywhere, nullptr, "", 11},
-        {"apparent_barrier_stderr_eV", "+-", [](const f& x) { return x.result.apparent_barrier_stderr_J; }, to_eV, {number_style::significant, 2}, everywhere, nullptr, "", 6},
+        {"apparent_barrier_eV", "phi_ap [eV]", [](const f& x) { return x.result.apparent_barrier_J; }, to_eV, fixed(3), everywhere,
+         [](const f& x) { return x.result.apparent_barrier_stderr_J / si::electron_volt; }, "", 16},
+        {"apparent_barrier_stderr_eV", "", [](const f& x) { return x.result.apparent_barrier_stderr_J; }, to_eV, {}, in_data},
         {"apparent_barrier_ci", "95% CI [eV]",
          [](const f& x) {
              const double eV = si::electron_volt;
@@ -103,8 +110,8 @@ std::vector<column<f>> slope_columns() {
         {"offset_A", "", [](const f& x) { return x.result.offset_A; }, {}, {}, in_data},
         {"offset_stderr_A", "", [](const f& x) { return x.result.offset_stderr_A; }, {}, {}, in_data},
         // The linear model estimates no offset: "-" in the table.
-        {"offset_A", "offset [pA]", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 11},
-        {"offset_stderr_A", "+-", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_stderr_A); }, times(1e12), fixed(2), in_table, nullptr, "-", 6},
+        {"offset_A", "offset [pA]", [](const f& x) { return x.result.model == fit_model::linear ? cell(absent{}) : cell(x.result.offset_A); }, times(1e12), fixed(2), in_table,
+         [](const f& x) { return x.result.offset_stderr_A * 1e12; }, "-", 13},
         {"r_squared", "R^2", [](const f& x) { return x.result.r_squared; }, {}, fixed(5), everywhere, nullptr, "", 8},
         {"reduced_chi_square", "chi2/dof", [](const f& x) { return x.result.reduced_chi_square; }, {}, fixed(2), everywhere, nullptr, "", 9},
         {"relative_noise", "", [](const f& x) { return x.result.relative_noise; }, {}, {}, in_data},

@@ -107,20 +107,26 @@ const std::vector<column<fit_summary>>& fit_summary_columns() {
     return columns;
 }
 
+namespace {
+// A p value for the text: two significant digits, or "< 1e-15" where the normal tail is below
+// double precision's resolution of 1 − Φ.
+std::string p_text(double p) { return p < 1e-15 ? "p < 1e-15" : fmt::format("p = {:.2g}", p); }
+}  // namespace
+
 std::string describe_summary(const fit_summary& s) {
     const weighted_mean& k = s.decay_constant_per_m;
     const weighted_mean& p = s.apparent_barrier_J;
     const double eV = si::electron_volt;
     std::string out = fmt::format(
         "summary of {} sweeps (weighted mean, error scaled by the Birge ratio when above 1):\n"
-        "  kappa  {:.4g} +- {:.2g} /nm (Birge ratio {:.2g}; spread between sweeps {:.2g} /nm)\n"
-        "  phi_ap {:.4g} +- {:.2g} eV (Birge ratio {:.2g}; spread between sweeps {:.2g} eV)\n",
-        k.count, k.mean * 1e-9, k.standard_error * 1e-9, k.birge_ratio, k.spread * 1e-9, p.mean / eV, p.standard_error / eV,
-        p.birge_ratio, p.spread / eV);
+        "  kappa  {} /nm (Birge ratio {:.2g}; spread between sweeps {:.2g} /nm)\n"
+        "  phi_ap {} eV (Birge ratio {:.2g}; spread between sweeps {:.2g} eV)\n",
+        k.count, with_uncertainty(k.mean * 1e-9, k.standard_error * 1e-9), k.birge_ratio, k.spread * 1e-9,
+        with_uncertainty(p.mean / eV, p.standard_error / eV), p.birge_ratio, p.spread / eV);
     if (std::isfinite(s.hysteresis_per_m)) {
-        out += fmt::format("  approach - retract: kappa {:+.3g} +- {:.2g} /nm over {} and {} sweeps, p = {:.2g}{}\n",
-                           s.hysteresis_per_m * 1e-9, s.hysteresis_stderr_per_m * 1e-9, s.approach_decay_per_m.count,
-                           s.retract_decay_per_m.count, s.hysteresis_p_value,
+        out += fmt::format("  approach - retract: kappa {} /nm over {} and {} sweeps, {}{}\n",
+                           with_uncertainty(s.hysteresis_per_m * 1e-9, s.hysteresis_stderr_per_m * 1e-9),
+                           s.approach_decay_per_m.count, s.retract_decay_per_m.count, p_text(s.hysteresis_p_value),
                            s.hysteresis_p_value < 0.01 ? " (significant hysteresis: drift or a tip change?)" : "");
     }
     return out;

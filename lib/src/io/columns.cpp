@@ -101,7 +101,10 @@ std::string with_uncertainty(double v, double u) {
     const double unit = std::pow(10.0, place);
     const double ur = std::round(u / unit) * unit, vr = std::round(v / unit) * unit;
     const double largest = std::max(std::abs(vr), ur);
-    if (place >= -6 && largest < 1e7) return fmt::format("{:.{}f} ± {:.{}f}", vr, std::max(0, -place), ur, std::max(0, -place));
+    // Fixed notation unless the numbers are very small or large (a tiny error on an ordinary
+    // value, as on noise-free data, keeps the value readable: "10.0000000000 ± 0.0000000016").
+    if (largest < 1e7 && (place >= -6 || (largest >= 1e-3 && place >= -15)))
+        return fmt::format("{:.{}f} ± {:.{}f}", vr, std::max(0, -place), ur, std::max(0, -place));
     // Very small or large: a shared power of ten.
     const int p = static_cast<int>(std::floor(std::log10(largest)));
     const double scale = std::pow(10.0, p);
