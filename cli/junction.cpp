@@ -6,9 +6,27 @@
 
 namespace tipgap::cli {
 
+namespace {
+
+// The flag behind each config key the overlay set, for --show-config ("# command line (--tip)").
+void name_flags(config& c, const junction_text& t) {
+    auto flag = [&](const std::string& key) -> std::string {
+        const bool tip = key.starts_with("tip."), sample = key.starts_with("sample.");
+        if (key == "tip.work_function" && !t.tip_work_function.empty()) return "--tip-work-function";
+        if (key == "sample.work_function" && !t.sample_work_function.empty()) return "--sample-work-function";
+        if (tip || sample) return tip ? "--tip" : "--sample";
+        return key == "temperature" ? "--temperature" : key == "method" ? "--method" : "--image";
+    };
+    for (auto& [key, origin] : c.origin)
+        if (origin == "command line") origin += " (" + flag(key) + ")";
+}
+
+}  // namespace
+
 config load_junction(const junction_flags& j) {
     config c = j.config_path.empty() ? default_config() : load_config(j.config_path);
     naming_flags("", flag_error::usage, [&] { apply_overlay(c, parse_overlay(j.text), "command line"); });
+    name_flags(c, j.text);
     return c;
 }
 

@@ -40,7 +40,12 @@ grep -q "work_function_eV: 5.65" "$work/s.truth.yaml" || grep -q "5.65" "$work/s
 #    the command's required flags.
 "$TIPGAP" plan -c "$work/t.yaml" --tip Au --show-config > "$work/shown.yaml" || fail "--show-config exited $?"
 grep -qx "temperature: 300 K  # $work/t.yaml:1" "$work/shown.yaml" || { cat "$work/shown.yaml"; fail "file origin"; }
-grep -qx "  material: gold  # command line" "$work/shown.yaml" || fail "command-line origin"
+grep -qx "  material: gold  # command line (--tip)" "$work/shown.yaml" || fail "command-line origin"
+"$TIPGAP" plan --tip W --tip-work-function 4.4eV --temperature 77K --image none --show-config > "$work/flags.yaml" || fail "--show-config flags"
+grep -qx "  material: tungsten  # command line (--tip)" "$work/flags.yaml" || { cat "$work/flags.yaml"; fail "--tip origin"; }
+grep -qx "  work_function: 4.4 eV  # command line (--tip-work-function)" "$work/flags.yaml" || fail "--tip-work-function origin"
+grep -qx "temperature: 77 K  # command line (--temperature)" "$work/flags.yaml" || fail "--temperature origin"
+grep -qx "  image_potential: none  # command line (--image)" "$work/flags.yaml" || fail "--image origin"
 grep -qx "method: wkb  # built-in default" "$work/shown.yaml" || fail "default origin"
 "$TIPGAP" plan --current 1nA --bias 0.1V -c "$work/shown.yaml" --format csv > "$work/r.csv" || fail "shown config reads back"
 "$TIPGAP" plan --current 1nA --bias 0.1V -c "$work/t.yaml" --tip Au --format csv > "$work/o.csv" || fail "flags"
