@@ -10,10 +10,11 @@
 #include "flags.hpp"
 #include "junction.hpp"
 #include "output.hpp"
-#include "synth_zv.hpp"
+#include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
+#include "tipgap/synth/zv_synth.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -29,7 +30,7 @@ struct synth_args {
     std::string tip_label, sample_label;
     std::string grid, pitch = "1nm", pattern = "disc", disc_radius, disc_centre, disc_wf = "4.3eV";
     std::size_t points_per_curve = 128;
-    bool zv = false;  // --zv: a constant-current z(V) trace instead (synth_zv.cpp); bias empty: 100mV or 4V..10V
+    bool zv = false;  // --zv: a constant-current z(V) trace instead (run_zv); bias empty: 100mV or 4V..10V
     std::string current, z_noise;
 };
 
@@ -84,11 +85,31 @@ synth_grid_options grid_opts(const synth_args& a) {
     return g;
 }
 
+// --zv: flags -> tipgap::zv_synth_options -> synthesise_zv_trace -> files.
+void run_zv(const config& c, const synth_args& a, const std::string& truth, const std::string& line) {
+    zv_synth_options o;
+    const std::string bias = a.bias.empty() ? "4V..10V" : a.bias;
+    const std::size_t dots = bias.find("..");
+    if (dots == std::string::npos) throw_usage("--bias", fmt::format("--zv needs a range FROM..TO, e.g. 4V..10V, got '{}'", bias));
+    o.bias_from_V = flag_quantity(bias.substr(0, dots), dimension::voltage, "--bias");
+    o.bias_to_V = flag_quantity(bias.substr(dots + 2), dimension::voltage, "--bias");
+    if (!a.current.empty()) o.current_A = flag_quantity(a.current, dimension::current, "--current");
+    if (!a.z_noise.empty()) o.z_noise_m = flag_quantity(a.z_noise, dimension::length, "--z-noise");
+    o.points = a.points;
+    o.seed = a.seed;
+    naming_flags("synth", flag_error::usage, [&] { o.validate(c.model); });
+    const zv_synth_trace t = synthesise_zv_trace(c, o);
+    write_zv_trace(t, c, o, a.out, truth, line);
+    fmt::print("wrote {} ({} points, synthetic z(V) at {:g} nA) and {}\n", a.out, t.bias_V.size(), o.current_A * 1e9, truth);
+    fmt::print("sample work function {:.4f} eV; resonances of the noise-free dz/dV at", t.sample_work_function_J / si::electron_volt);
+    for (double v : t.peaks_V) fmt::print(" {:.3f}", v);
+    fmt::print(" V\n");
+}
+
 void run(const synth_args& a, const std::string& line) {
     const config c = load_junction(a.junction);
     if (a.zv) {
-        const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
-        return run_synth_zv(c, {a.bias, a.current, a.z_noise, a.points, a.seed, a.out, truth, line});
+        return run_zv(c, a, a.truth.empty() ? truth_path_for(a.out) : a.truth, line);
     }
     synth_options o = synth_opts(a);
     if (!a.grid.empty()) o.points = a.points_per_curve;

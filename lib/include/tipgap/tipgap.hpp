@@ -19,6 +19,7 @@
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
 #include "tipgap/core/units.hpp"
+#include "tipgap/core/usage_message.hpp"
 
 #include "tipgap/model/barrier.hpp"
 #include "tipgap/model/closed_forms.hpp"
@@ -43,6 +44,7 @@
 
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fit_report.hpp"
 #include "tipgap/fit/fit_summary.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/fit/model_fit.hpp"
@@ -65,9 +67,11 @@
 #include "tipgap/plot/plot.hpp"
 
 #include "tipgap/figures/demo_figures.hpp"
+#include "tipgap/figures/map_directory.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/figures/map_figures.hpp"
 
 #include "tipgap/demo/demo.hpp"
 #include "tipgap/demo/demo_columns.hpp"
+#include "tipgap/demo/demo_text.hpp"
