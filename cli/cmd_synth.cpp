@@ -10,7 +10,6 @@
 #include "flags.hpp"
 #include "junction.hpp"
 #include "output.hpp"
-#include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
@@ -101,9 +100,7 @@ void run_zv(const config& c, const synth_args& a, const std::string& truth, cons
     const zv_synth_trace t = synthesise_zv_trace(c, o);
     write_zv_trace(t, c, o, a.out, truth, line);
     fmt::print("wrote {} ({} points, synthetic z(V) at {:g} nA) and {}\n", a.out, t.bias_V.size(), o.current_A * 1e9, truth);
-    fmt::print("sample work function {:.4f} eV; resonances of the noise-free dz/dV at", t.sample_work_function_J / si::electron_volt);
-    for (double v : t.peaks_V) fmt::print(" {:.3f}", v);
-    fmt::print(" V\n");
+    fmt::print("{}", zv_trace_summary(t));
 }
 
 void run(const synth_args& a, const std::string& line) {
@@ -119,14 +116,7 @@ void run(const synth_args& a, const std::string& line) {
         const synth_curve curve = synthesise_curve(c, o);
         write_synth_curve(curve, c, o, a.out, truth, line);
         fmt::print("wrote {} ({} rows, synthetic) and {}\n", a.out, curve.samples.size(), truth);
-        fmt::print("model over {:.3g}..{:.3g} nm: {}", o.gap_min_m / 1e-9, o.gap_max_m / 1e-9,
-                   format_line(synth_truth_columns(), curve.truth,
-                               "kappa {decay_constant_range_per_nm} 1/nm, phi_ap {apparent_barrier_range_eV} eV (mean "
-                               "work function {mean_work_function_eV} eV)\n"));
-        for (const synth_sweep_truth& s : curve.truth.sweeps)
-            fmt::print("{}", format_line(synth_sweep_columns(), s,
-                                         "  {direction}: {usable_points} usable points, expected fit kappa "
-                                         "{decay_constant_expected_per_nm} 1/nm, phi_ap {apparent_barrier_expected_eV} eV\n"));
+        fmt::print("{}", synth_curve_summary(curve, o));
         return;
     }
     const synth_grid_options g = grid_opts(a);
@@ -134,10 +124,7 @@ void run(const synth_args& a, const std::string& line) {
     const synth_grid_truth t = naming_flags("synth", flag_error::usage, [&] { return write_synth_grid(c, o, g, a.out, truth, line); });
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     fmt::print("wrote {} ({}x{} pixels, {} rows, synthetic) and {} in {:.2f} s\n", a.out, g.nx, g.ny, t.rows, truth, seconds);
-    for (const grid_region_truth& r : t.regions)
-        fmt::print("{}", format_line(grid_region_columns(), r,
-                                     "  {name}: {pixels} pixels, sample work function {sample_work_function_eV} eV, phi_ap "
-                                     "{apparent_barrier_expected_eV} eV (kappa {decay_constant_expected_per_nm} 1/nm)\n"));
+    fmt::print("{}", synth_grid_summary(t));
 }
 
 }  // namespace

@@ -32,7 +32,7 @@ struct overloaded : F... {
     using F::operator()...;
 };
 
-// The output format by its name (enum_names<output_format>, cli/command.hpp).
+// The output format by its name (enum_names<output_format>, tipgap/io/report.hpp).
 CLI::Option* add_format(CLI::App* cmd, const flag& f, output_format& format) {
     return cmd->add_option_function<std::string>(
         f.names,

@@ -38,24 +38,4 @@ void print_warnings(const std::vector<std::string>& warnings, const std::string&
     }
 }
 
-std::string config_line(const config& c) {
-    return fmt::format("# {} · T = {} K · image {} · method {} · geometry {}", c.source, c.model.temperature_K,
-                       to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind));
-}
-
-const uncertainty_summary* first_uncertain(const std::vector<uncertainty_summary>& u) {
-    for (const auto& x : u)
-        if (!x.inputs.empty()) return &x;
-    return nullptr;
-}
-
-std::string uncertainty_line(const std::vector<uncertainty_summary>& u, const char* of) {
-    const uncertainty_summary* x = first_uncertain(u);
-    if (!x) return "";
-    if (x->samples > 0)
-        return fmt::format("# ± : Monte Carlo standard uncertainty{}, {} draws, seed {} (inputs: {})\n", of, x->samples,
-                           x->seed, fmt::join(x->inputs, ", "));
-    return fmt::format("# ± : linear propagation (inputs: {})\n", fmt::join(x->inputs, ", "));
-}
-
 }  // namespace tipgap::cli

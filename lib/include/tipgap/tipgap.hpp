@@ -60,6 +60,7 @@
 #include "tipgap/io/columns.hpp"
 #include "tipgap/io/curve_arrays.hpp"
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/io/report.hpp"
 
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
