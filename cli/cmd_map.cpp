@@ -7,11 +7,9 @@
 #include <string>
 
 #include "command.hpp"
-#include "fit_flags.hpp"
+#include "curve_flags.hpp"
 #include "flags.hpp"
 #include "output.hpp"
-#include "ranges.hpp"
-#include "read_flags.hpp"
 #include "tipgap/core/progress.hpp"
 #include "tipgap/figures/map_directory.hpp"
 #include "tipgap/grid/map_checks.hpp"

@@ -6,8 +6,6 @@
 #include "flags.hpp"
 #include "junction.hpp"
 #include "output.hpp"
-#include "plot_flags.hpp"
-#include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/plan/predict.hpp"

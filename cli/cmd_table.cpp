@@ -6,7 +6,6 @@
 #include "flags.hpp"
 #include "junction.hpp"
 #include "output.hpp"
-#include "ranges.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/plan/reference_table.hpp"
 #include "tipgap/plan/reference_table_columns.hpp"

@@ -1,6 +1,6 @@
 #pragma once
-// Shared CLI plumbing: the output flags, writing to stdout or atomically to --output, warnings on
-// stderr. (render(), which picks the table, the CSV or the JSON, is tipgap/io/report.hpp.)
+// Shared CLI plumbing: the output and figure flags, writing to stdout or atomically to --output,
+// warnings on stderr. (render(), which picks the table, the CSV or the JSON, is tipgap/io/report.hpp.)
 #include <cstdio>
 #include <fmt/format.h>
 #include <string>
@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "command.hpp"
+#include "tipgap/figures/figures.hpp"
 #include "tipgap/io/report.hpp"
 #include "tipgap/plan/uncertainty.hpp"
 
@@ -19,6 +20,17 @@ flag format_flag(output_format& format);
 std::vector<flag> output_flags(output_format& format, std::string& path);
 // --mc-samples N and --seed S (Monte Carlo draws for configured input uncertainties).
 std::vector<flag> uncertainty_flags(uncertainty_options& o);
+
+// The figure flags of plan and predict: --plot-floor CURRENT and (plan) --plot-bias BIAS.
+struct plot_flags {
+    std::string floor;
+    std::string bias;
+};
+// The flags bound to `f`; with_bias: also --plot-bias.
+std::vector<flag> plot_flag_list(plot_flags& f, bool with_bias);
+// The figure options the flags ask for (defaults where a flag is absent). Throws tipgap::error
+// (usage) naming the flag for a value that is not a current or bias, or a floor <= 0.
+figure_options to_figure_options(const plot_flags& f);
 
 // Writes `content` to stdout when `path` is empty or "-", else atomically to `path`.
 void write_output(const std::string& path, std::string_view content);
