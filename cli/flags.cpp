@@ -3,15 +3,14 @@
 #include <cmath>
 #include <fmt/format.h>
 
+#include "tipgap/core/key_names.hpp"
+
 namespace tipgap::cli {
 
 namespace {
 
 // Library key -> flag. command "" : every command; a command's own row comes first.
-struct flag_name {
-    std::string_view command, key, flag;
-};
-constexpr flag_name flag_names[] = {
+constexpr key_name flag_names[] = {
     // Operating points (predict_points, solve_gap, reference_table).
     {"", "gap", "--gap"},
     {"", "bias", "--bias"},
@@ -89,13 +88,7 @@ int points_of_step(double a, double b, const std::string& step, dimension d) {
 
 }  // namespace
 
-std::string_view flag_for(std::string_view command, std::string_view key) {
-    for (const flag_name& f : flag_names)
-        if (f.command == command && f.key == key) return f.flag;
-    for (const flag_name& f : flag_names)
-        if (f.command.empty() && f.key == key) return f.flag;
-    return {};
-}
+std::string_view flag_for(std::string_view command, std::string_view key) { return name_for(flag_names, command, key); }
 
 void rethrow_naming_flag(std::string_view command, flag_error as, const error& e) {
     const std::string_view flag = flag_for(command, e.where().key);

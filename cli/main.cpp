@@ -7,9 +7,7 @@
 #include <CLI/CLI.hpp>
 #include <charconv>
 #include <cstdio>
-#include <exception>
 #include <fmt/format.h>
-#include <new>
 #include <vector>
 
 #include "command.hpp"
@@ -23,9 +21,6 @@
 
 namespace tipgap::cli {
 namespace {
-
-// Exit code of an internal error (a bug): EX_SOFTWARE of sysexits.h.
-constexpr int internal_error_exit = 70;
 
 template <class... F>
 struct overloaded : F... {
@@ -147,17 +142,6 @@ int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
     return static_cast<int>(error_kind::usage);
 }
 
-int report_error(const tipgap::error& e) {
-    std::fprintf(stderr, "%s\n", error_line(e).c_str());
-    return static_cast<int>(e.kind());
-}
-
-int report_internal_error(const std::string& what) {
-    std::fprintf(stderr, "tipgap: internal error (this is a bug; please report it with the command line): %s\n",
-                 one_line(what).c_str());
-    return internal_error_exit;
-}
-
 }  // namespace
 }  // namespace tipgap::cli
 
@@ -182,14 +166,10 @@ int main(int argc, char** argv) {
         return app.exit(e);
     } catch (const CLI::ParseError& e) {
         return report_parse_error(app, e);
-    } catch (const tipgap::error& e) {
-        return report_error(e);
-    } catch (const std::bad_alloc&) {
-        return report_internal_error("out of memory");
-    } catch (const std::exception& e) {
-        return report_internal_error(e.what());
     } catch (...) {
-        return report_internal_error("an exception that is not a std::exception");
+        const tipgap::failure f = tipgap::current_failure();  // a tipgap::error, or a bug
+        std::fprintf(stderr, "%s\n", f.line.c_str());
+        return f.exit_code;
     }
     return 0;
 }

@@ -18,6 +18,7 @@
 #include "tipgap/core/enum_names.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
+#include "tipgap/core/key_names.hpp"
 #include "tipgap/core/units.hpp"
 #include "tipgap/core/usage_message.hpp"
 
