@@ -7,8 +7,8 @@
 #include <vector>
 
 #include "command.hpp"
-#include "curve_flags.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/fit/fit_columns.hpp"
 #include "tipgap/fit/fit_report.hpp"

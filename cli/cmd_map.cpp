@@ -7,9 +7,9 @@
 #include <string>
 
 #include "command.hpp"
-#include "curve_flags.hpp"
 #include "flags.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/core/progress.hpp"
 #include "tipgap/figures/map_directory.hpp"
 #include "tipgap/grid/map_checks.hpp"

@@ -6,8 +6,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/plan/plan.hpp"

@@ -6,8 +6,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/figures/resonance_plot.hpp"
 #include "tipgap/fit/resonance_columns.hpp"
 #include "tipgap/fit/resonances.hpp"

@@ -8,8 +8,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"

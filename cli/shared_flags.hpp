@@ -1,16 +1,35 @@
 #pragma once
-// The flag sets of `tipgap fit` and `tipgap map`: one set of flag names, help texts and messages
-// for both. The reader options (delimiter, columns, units, z orientation, and the bias and
-// temperature of files that do not state them) and the fit options.
+// The flag sets shared between commands, each with one set of flag names, help texts and messages:
+// - the junction flags of predict, plan, table, synth and resonances: --config, --tip, --sample,
+//   --tip-work-function, --sample-work-function, --temperature, --image, --method and
+//   --show-config. Values go through the library's overlay (tipgap::apply_overlay): built-in
+//   default < config file < command line.
+// - the reader options of fit and map (delimiter, columns, units, z orientation, and the bias and
+//   temperature of files that do not state them) and their fit options.
+// (The output, figure and uncertainty flags are in output.hpp.)
 #include <cstddef>
 #include <string>
 #include <vector>
 
 #include "command.hpp"
+#include "tipgap/config/config.hpp"
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/io/reader_options.hpp"
 
 namespace tipgap::cli {
+
+struct junction_flags {
+    std::string config_path;
+    junction_text text;  // --tip, --sample, ... as given
+    bool show = false;
+};
+
+// The flags, --show-config last: it prints the merged config with each value's origin and ends the
+// command (exit 0) before the command's own required flags are checked.
+std::vector<flag> junction_flag_list(junction_flags& j);
+
+// The merged config; a bad value is a usage error naming its flag.
+config load_junction(const junction_flags& j);
 
 struct read_flags {
     std::string delimiter, columns, z_unit, current_unit, xy_unit, bias, temperature;
