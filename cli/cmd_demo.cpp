@@ -53,6 +53,8 @@ void print_read_options(const demo_report& r) {
             flags += fmt::format(" {}{}{}", flag_for("fit", key), value.empty() ? "" : " ", value);
         const std::string name = fs::path(d.curve->file).filename().string();
         if (!flags.empty()) fmt::print("note: {} is in another layout, read as: tipgap fit {}{}\n", name, name, flags);
+        if (d.fit.model == fit_model::offset)
+            fmt::print("note: {} has an amplifier offset, fitted as: tipgap fit {} (the default offset model)\n", name, name);
     }
 }
 

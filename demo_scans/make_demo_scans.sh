@@ -68,7 +68,20 @@ bias: 100 mV
 temperature: 4.2 K
 YAML
 
-# 9. Resonances (demo_scans/resonances/): the same W tip over a silver monolayer island on Au(111),
+# 9. Later that day the current pre-amplifier's input offset has crept to +3 pA (1 pA noise): a
+#    retract curve from 100 pA well into the tail, where the offset dominates. A straight line
+#    through ln|I| would read kappa about 9 % low; `tipgap demo` fits it with the default offset
+#    model (09_w_au111_offset.fit.yaml), which estimates the offset with kappa.
+synth --out 09_w_au111_offset.csv --gap 0.8nm..1.3nm --bias 100mV --noise 1pA --baseline 3pA --seed 110 \
+      --tip-label "W, flashed" --sample-label "Au(111)"
+cat > 09_w_au111_offset.fit.yaml <<'YAML'
+# How tipgap demo fits 09_w_au111_offset.csv, a synthetic curve with a +3 pA amplifier offset:
+# with the default offset model, as `tipgap fit 09_w_au111_offset.csv` does (the other demo
+# curves are fitted with --model linear, the estimand of their expected kappa).
+model: offset
+YAML
+
+# 10. Resonances (demo_scans/resonances/): the same W tip over a silver monolayer island on Au(111),
 #    imagined with a local work function of 4.6 eV. A constant-current z(V) trace at 1 nA from 4 to
 #    10 V in 50 mV steps with 2 pm of z noise, for `tipgap resonances` (exact transmission model).
 mkdir -p resonances

@@ -14,7 +14,7 @@ scans="$TIPGAP_SOURCE_DIR/demo_scans"
 mkdir "$tmp/regen"
 cp "$scans/make_demo_scans.sh" "$tmp/regen/"
 bash "$tmp/regen/make_demo_scans.sh" "$TIPGAP"
-for f in "$scans"/*.csv "$scans"/*.tsv "$scans"/*.truth.yaml "$scans"/*.read.yaml; do
+for f in "$scans"/*.csv "$scans"/*.tsv "$scans"/*.truth.yaml "$scans"/*.read.yaml "$scans"/*.fit.yaml; do
   cmp -s "$f" "$tmp/regen/$(basename "$f")" || fail "$(basename "$f") does not regenerate byte-identically"
 done
 for f in "$scans"/resonances/*; do
@@ -29,10 +29,13 @@ for f in prediction.csv fits.csv demo.json prediction.png fit-01_w_au111_clean.p
          fit-05_w_au111_pair-retract.png; do
   [ -s "$tmp/demo/$f" ] || fail "demo did not write $f"
 done
-grep -q "kappa inside its 95% interval for 9 of 9 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
+grep -q "kappa inside its 95% interval for 10 of 10 sweeps" "$tmp/demo.txt" || { cat "$tmp/demo.txt"; fail "summary line"; }
 # The file in another layout: the options it was read with, shown as `tipgap fit` takes them.
 grep -qx "note: 08_w_au111_export.tsv is in another layout, read as: tipgap fit 08_w_au111_export.tsv --columns Z,I --flip-z --bias 0.1V --temperature 4.2K" "$tmp/demo.txt" \
   || { cat "$tmp/demo.txt"; fail "read options line"; }
+grep -qx "offset inside its 95% interval for 1 of 1 offset-model fits." "$tmp/demo.txt" || fail "offset summary line"
+grep -qx "note: 09_w_au111_offset.csv has an amplifier offset, fitted as: tipgap fit 09_w_au111_offset.csv (the default offset model)" "$tmp/demo.txt" \
+  || fail "offset fit line"
 grep -q "^plan at 0.1 V (setpoint ladder):" "$tmp/demo.txt" || fail "no plan line"
 # The planned ladder: one decade of current per step, and the gap steps equal nm_per_decade
 # (within 5 %: the local slope varies along a 0.1 nm step); about 0.1 nm per decade (common practice).
@@ -58,17 +61,20 @@ doc = json.load(open(sys.argv[1])); pred = json.load(open(sys.argv[2])); scans =
 hbar = 6.62607015e-34 / (2 * math.pi); me = 9.1093837015e-31; e = 1.602176634e-19  # CODATA 2018
 assert doc["command"] == "demo" and doc["synthetic_data"] is True
 curves = doc["curves"]
-assert len(curves) == 9, len(curves)
-def truth_values(path):
-    # The expected kappa of each sweep, read with a regex (no YAML module in Debian's python3 by default).
+assert len(curves) == 10, len(curves)
+def truth_values(path, key):
+    # The expected (linear model) or the model's own (offset model: without the baseline) kappa
+    # of each sweep, read with a regex (no YAML module in Debian's python3 by default).
     text = open(path).read()
-    return [float(x) for x in re.findall(r"decay_constant_expected_per_nm: ([-0-9.e+]+)", text)]
+    return [float(x) for x in re.findall(key + r": ([-0-9.e+]+)", text)]
 seen = {}
 for c in curves:
     stem = os.path.splitext(os.path.basename(c["file"]))[0]
     k = seen.get(stem, 0); seen[stem] = k + 1
-    truth = truth_values(os.path.join(scans, stem + ".truth.yaml"))[k]
-    assert abs(c["truth"]["decay_constant_expected_per_nm"] - truth) < 1e-12 * truth, (stem, truth)
+    key = "decay_constant_expected_per_nm" if c["model"] == "linear" else "decay_constant_model_per_nm"
+    assert (c["model"] == "offset") == os.path.exists(os.path.join(scans, stem + ".fit.yaml")), stem
+    truth = truth_values(os.path.join(scans, stem + ".truth.yaml"), key)[k]
+    assert abs(c["truth"][key] - truth) < 1e-12 * truth, (stem, truth)
     lo, hi = c["decay_constant_ci_low_per_nm"], c["decay_constant_ci_high_per_nm"]
     assert lo <= truth <= hi, (stem, lo, truth, hi)
     assert c["kappa_within_ci"] is True
@@ -76,12 +82,18 @@ for c in curves:
     assert 9.0 < kap < 12.0, kap
     phi = hbar**2 * (kap * 1e9)**2 / (2 * me) / e
     assert abs(c["apparent_barrier_eV"] - phi) < 1e-9 * phi, (c["apparent_barrier_eV"], phi)
+    if c["model"] == "offset":
+        # The offset of 09 (3 pA) inside t * stderr, the stderr well below the 1 pA noise.
+        assert c["truth_offset_pA"] == 3.0 and c["offset_within_ci"] is True, c
+        assert abs(c["offset_pA"] - 3.0) <= 2.0 * c["offset_stderr_pA"] < 0.6, c
+        assert "model_fit" not in c, c  # the model comparison fits no offset
+        continue
     m = c["model_fit"]
     # The image potential puts phi_ap below the fitted mean work function.
     assert m["mean_work_function_eV"] > c["apparent_barrier_eV"] + 0.2, (stem, m)
 assert [c["contact"] for c in curves if "contact" in c["file"]] == ["plateau"]
 assert [c["saturation_detected"] for c in curves if "saturated" in c["file"]] == [True]
-assert doc["summary"] == {"curves_compared": 9, "kappa_within_ci": 9}, doc["summary"]
+assert doc["summary"] == {"curves_compared": 10, "kappa_within_ci": 10, "offsets_compared": 1, "offset_within_ci": 1}, doc["summary"]
 export = [c for c in curves if c["file"].endswith("08_w_au111_export.tsv")]
 assert [c["read_options"] for c in export] == [{"columns": "Z,I", "flip_z": "true", "bias_V": "0.1V", "temperature_K": "4.2K"}], export
 assert all(c["read_options"] == {} for c in curves if c not in export)

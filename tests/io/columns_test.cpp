@@ -205,3 +205,17 @@ TEST(columns, a_narrow_interval_keeps_its_ends_apart) {
     EXPECT_EQ(interval_text(-1.25, 2.5), "-1.2 – 2.5");
     EXPECT_EQ(interval_text(120.0, 180.0), "120 – 180");
 }
+
+// A length column whose values are all zero (the Δz of a one-point z(V) plan) reads in nm, not m;
+// other quantities keep their base unit.
+TEST(columns, an_all_zero_length_column_reads_in_nanometres) {
+    using r = sample_row;
+    const std::vector<column<r>> cols = {
+        {.key = "dz_nm", .label = "dz", .get = [](const r& x) { return x.gap_m; }, .scale = times(1e9), .reading_unit = "m"},
+        {.key = "current_A", .label = "I", .get = [](const r& x) { return x.current_A; }, .reading_unit = "A"},
+    };
+    r row;
+    row.name = "a";
+    const std::vector<r> zero = {row};
+    EXPECT_EQ(format_table(cols, zero, {.rule = false}), "dz [nm]  I [A]\n      0      0\n");
+}

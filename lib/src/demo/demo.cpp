@@ -5,8 +5,10 @@
 #include <cmath>
 #include <filesystem>
 #include <fmt/format.h>
+#include <yaml-cpp/yaml.h>
 
 #include "core/detail/parallel.hpp"
+#include "io/detail/read_capped.hpp"
 
 namespace tipgap {
 namespace {
@@ -63,6 +65,44 @@ reader_options reader_options_for(const std::string& curve_file) {
     return o;
 }
 
+// The fit model of a demo curve: `model:` in its <stem>.fit.yaml, or the linear model (the
+// estimand of the synthesiser's expected κ; see below).
+fit_options fit_options_for(const std::string& curve_file) {
+    const std::filesystem::path p(curve_file);
+    const std::string path = (p.parent_path() / (p.stem().string() + ".fit.yaml")).string();
+    fit_options o{.model = fit_model::linear};
+    std::error_code ec;
+    if (!std::filesystem::exists(path, ec)) return o;
+    const std::string text = detail::read_capped(path, detail::config_cap_bytes, false, "fit options (YAML)");
+    YAML::Node root;
+    try {
+        root = YAML::Load(text);
+    } catch (const YAML::Exception& e) {
+        throw_input(location{path, e.mark.line + 1, e.mark.column + 1, ""}, fmt::format("not valid YAML: {}", e.msg));
+    }
+    if (root.IsNull()) return o;
+    if (!root.IsMap()) throw_input(location{path, 1, 1, ""}, "expected a block of keys (a YAML mapping)");
+    for (const auto& kv : root) {
+        const YAML::Mark m = kv.second.Mark();
+        const std::string key = kv.first.Scalar();
+        const location where{path, m.line + 1, m.column + 1, key.size() > 60 ? key.substr(0, 60) + "..." : key};
+        if (key != "model") throw_input(where, "unknown key; expected: model");
+        if (!kv.second.IsScalar()) throw_input(where, "expected a single value, not a block or a list");
+        if (!from_string(kv.second.Scalar(), o.model))
+            throw_input(where, fmt::format("{} is not a fit model; expected {}", quote_input(kv.second.Scalar()),
+                                           accepted_names<fit_model>()));
+    }
+    return o;
+}
+
+// The truth of κ for the fit's model: the linear model's estimand is the expected κ (the
+// weighted line of the noise-free recorded current, baseline and drift included); the offset
+// model removes the baseline, so its estimand is the model's own κ over the same points.
+double truth_decay_for(const demo_curve& d) {
+    return d.fit.model == fit_model::linear ? d.sweep_truth->decay_constant_expected_per_m
+                                            : d.sweep_truth->decay_constant_model_per_m;
+}
+
 }  // namespace
 
 demo_report run_demo(const demo_options& o) {
@@ -92,14 +132,14 @@ demo_report run_demo(const demo_options& o) {
     std::sort(files.begin(), files.end());
     if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no curve files (*.csv, *.tsv, *.txt) in the demo scans directory");
 
-    // `tipgap fit FILE --model linear`: the synthesiser's expected κ is the I²-weighted line of
-    // the noise-free curve, which is the linear model's estimand. These curves come from the WKB
-    // model with the image potential, so ln|I| is curved and κ depends on the weighting: the
-    // default offset model (weights from its noise model) flags the curvature and lands ~0.1-0.7 %
-    // away (tests/demo/demo_scans_test.cpp).
-    const fit_options fo{.model = fit_model::linear};
+    // `tipgap fit FILE --model linear` unless the file's <stem>.fit.yaml names another model: the
+    // synthesiser's expected κ is the I²-weighted line of the noise-free curve, which is the
+    // linear model's estimand. These curves come from the WKB model with the image potential, so
+    // ln|I| is curved and κ depends on the weighting: the default offset model (weights from its
+    // noise model) flags the curvature and lands ~0.1-0.7 % away (tests/demo/demo_scans_test.cpp).
     for (const std::string& f : files) {
         const reader_options read = reader_options_for(f);
+        const fit_options fo = fit_options_for(f);
         auto curve = std::make_shared<const measured_curve>(read_curve_csv(f, read));
         std::optional<truth_record> truth;
         const std::string tp = truth_path_for(f);
@@ -122,19 +162,23 @@ demo_report run_demo(const demo_options& o) {
     // The model comparisons are independent and the slow part: one worker per sweep.
     detail::parallel_for(rep.curves.size(), o.model_comparison ? o.threads : 1, [&](std::size_t i) {
         demo_curve& d = rep.curves[i];
-        if (o.model_comparison) {
+        // The model comparison fits no current offset: an offset-model curve would bias it.
+        if (o.model_comparison && d.fit.model == fit_model::linear) {
             const double bias = d.curve->metadata.bias_V ? *d.curve->metadata.bias_V : std::nan("");
             config at_temperature = rep.cfg;  // the model at the measurement's temperature (fit_and_compare)
             if (d.curve->metadata.temperature_K) at_temperature.model.temperature_K = *d.curve->metadata.temperature_K;
             // The model comparison takes its points and weights from the linear fit.
             const location where{d.curve->file, 0, 0, ""};
-            const fit_result linear =
-                d.fit.model == fit_model::linear ? d.fit : fit_sweep(d.sweep(), bias, fit_options{.model = fit_model::linear}, where);
-            d.model = fit_model_to_sweep(at_temperature, d.sweep(), linear, bias, model_fit_options{}, where);
+            d.model = fit_model_to_sweep(at_temperature, d.sweep(), d.fit, bias, model_fit_options{}, where);
         }
         if (d.sweep_truth) {
-            const double k = d.sweep_truth->decay_constant_expected_per_m;
+            d.truth_decay_constant_per_m = truth_decay_for(d);
+            const double k = d.truth_decay_constant_per_m;
             d.kappa_within = k >= d.fit.decay_constant_ci_low_per_m && k <= d.fit.decay_constant_ci_high_per_m;
+        }
+        if (d.truth && d.fit.model == fit_model::offset) {
+            const double half = d.fit.t_quantile * d.fit.offset_stderr_A;
+            d.offset_within = std::abs(d.fit.offset_A - d.truth->baseline_A) <= half;
         }
         if (d.model && d.truth) {
             const double half = d.model->t_quantile * d.model->mean_work_function_stderr_J;

@@ -57,6 +57,7 @@ const std::vector<column<demo_curve>>& demo_curve_columns() {
         {.key = "file", .label = "file", .get = [](const d& x) { return std::filesystem::path(x.curve->file).filename().string(); },
          .shown = in_table},
         {"direction", "sweep", [](const d& x) { return to_string(x.fit.direction); }},
+        {"model", "model", [](const d& x) { return to_string(x.fit.model); }},
         {.key = "decay_constant_per_nm", .label = "kappa [1/nm]", .get = [](const d& x) { return x.fit.decay_constant_per_m; },
          .scale = to_per_nm, .number = fixed(3), .spread = [](const d& x) { return x.fit.decay_constant_stderr_per_m * 1e-9; }},
         {"decay_constant_stderr_per_nm", "", [](const d& x) { return x.fit.decay_constant_stderr_per_m; }, to_per_nm, {}, in_data},
@@ -74,13 +75,23 @@ const std::vector<column<demo_curve>>& demo_curve_columns() {
         {"read_options", "", [](const d& x) { return read_record_of(x); }, {}, {}, in_json},
         {"truth", "", [no](const d& x) { return x.sweep_truth ? cell(truth_record_of(x)) : no(); }, {}, {}, in_json},
         {"truth_decay_constant_per_nm", "truth kappa",
-         [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->decay_constant_expected_per_m) : no(); }, to_per_nm, fixed(3),
+         [no](const d& x) { return x.sweep_truth ? cell(x.truth_decay_constant_per_m) : no(); }, to_per_nm, fixed(3),
          in_csv | in_table, {}, "-"},
         {"truth_apparent_barrier_eV", "truth phi_ap",
-         [no](const d& x) { return x.sweep_truth ? cell(x.sweep_truth->apparent_barrier_expected_J) : no(); }, to_eV, fixed(3),
-         in_table, {}, "-"},
+         [no](const d& x) { return x.sweep_truth ? cell(apparent_barrier_from_decay(x.truth_decay_constant_per_m)) : no(); },
+         to_eV, fixed(3), in_table, {}, "-"},
         {"kappa_within_ci", "kappa in 95% CI", [no](const d& x) { return x.sweep_truth ? cell(x.kappa_within) : no(); }, {}, {},
          everywhere, {}, "-"},
+        {.key = "offset_pA", .label = "offset [pA]",
+         .get = [no](const d& x) { return x.fit.model == fit_model::offset ? cell(x.fit.offset_A) : no(); }, .scale = times(1e12),
+         .number = fixed(2), .spread = [](const d& x) { return x.fit.offset_stderr_A * 1e12; }, .none = "-"},
+        {"offset_stderr_pA", "", [no](const d& x) { return x.fit.model == fit_model::offset ? cell(x.fit.offset_stderr_A) : no(); },
+         times(1e12), {}, in_data, {}, "-"},
+        {"truth_offset_pA", "truth offset",
+         [no](const d& x) { return x.fit.model == fit_model::offset && x.truth ? cell(x.truth->baseline_A) : no(); }, times(1e12),
+         fixed(2), everywhere, {}, "-"},
+        {"offset_within_ci", "", [no](const d& x) { return x.fit.model == fit_model::offset && x.truth ? cell(x.offset_within) : no(); },
+         {}, {}, in_data, {}, "-"},
         {"model_fit", "", [no](const d& x) { return x.model ? cell(model_record_of(x)) : no(); }, {}, {}, in_json},
         {"model_mean_work_function_eV", "model W [eV]",
          [no](const d& x) { return x.model ? cell(x.model->mean_work_function_J) : no(); }, to_eV, fixed(3), in_csv | in_table,
@@ -123,6 +134,10 @@ demo_tally tally(const demo_report& r) {
         if (!d.sweep_truth) continue;
         ++t.compared;
         t.kappa_within += d.kappa_within ? 1 : 0;
+        if (d.truth && d.fit.model == fit_model::offset) {
+            ++t.offsets_compared;
+            t.offset_within += d.offset_within ? 1 : 0;
+        }
     }
     return t;
 }
@@ -203,6 +218,8 @@ record demo_document(const demo_report& r, const std::string& out_dir) {
     record summary;
     summary.set("curves_compared", t.compared);
     summary.set("kappa_within_ci", t.kappa_within);
+    summary.set("offsets_compared", t.offsets_compared);
+    summary.set("offset_within_ci", t.offset_within);
     j.set("summary", summary);
     cell::list resonances;
     for (const demo_resonance& d : r.resonances) {

@@ -36,14 +36,18 @@ std::string demo_overview_text(const demo_report& r, const demo_options& o) {
 }
 
 std::string demo_results_text(const demo_report& r, const demo_options& o) {
-    std::string s = fmt::format("\nfits of the synthetic curves in {} (as tipgap fit --model linear; truth: the synthesiser's "
-                                "expected kappa, the weighted line of the noise-free curve):\n",
+    std::string s = fmt::format("\nfits of the synthetic curves in {} (as tipgap fit --model linear, or the model in the file's "
+                                ".fit.yaml; truth: the synthesiser's expected kappa, the weighted line of the noise-free "
+                                "curve, without the baseline for the offset model; no model comparison for offset-model "
+                                "fits, as it fits no offset):\n",
                                 o.scans_dir);
     s += format_table(demo_curve_columns(), r.curves);
     const demo_tally t = tally(r);
     s += fmt::format("kappa inside its 95% interval for {} of {} sweeps. The fitted mean work function W is above phi_ap: "
                      "the image potential lowers the apparent barrier.\n",
                      t.kappa_within, t.compared);
+    if (t.offsets_compared > 0)
+        s += fmt::format("offset inside its 95% interval for {} of {} offset-model fits.\n", t.offset_within, t.offsets_compared);
     if (!r.resonances.empty())
         s += fmt::format("\nfield-emission resonances of the synthetic z(V) traces (sample work function from the peaks; the "
                          "triangular-well formula ignores the image potential and reads low):\n{}",

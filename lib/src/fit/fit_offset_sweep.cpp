@@ -185,7 +185,8 @@ void record_offset_fit(fit_result& r, const fit_workspace& ws, const point_selec
     fill_decay(r, 0.5 * of.rate_per_m, 0.5 * of.rate_stderr_per_m, dof, t_quantile(dof, r.confidence_level));
     if (r.curvature_p_value < curvature_level) {
         r.warnings.push_back(fmt::format("ln|I - offset| is not a straight line (curvature test p = {:.2g}): the barrier "
-                                         "changes over the gap; see the phi_ap(z) profile",
+                                         "changes over the gap; see the phi_ap(z) profile (the offset then also absorbs part of the curvature: "
+                                         "compare with --model linear)",
                                          r.curvature_p_value));
     }
 }

@@ -161,8 +161,9 @@ synth_curve synthesise_curve(const config& c, const synth_options& o) {
             if (use.back()) ++st.usable_points;
         }
         for (std::size_t m = 0; m < z.size(); ++m) {
-            // Drift-free current at the nominal gap: equal to i_drift when there is no drift.
-            i_nominal.push_back(o.drift_m == 0.0 ? i_drift[m]
+            // Drift-free model current at the nominal gap, without the baseline (the model's own
+            // current at the recorded gap when there is no drift).
+            i_nominal.push_back(o.drift_m == 0.0 ? out.samples[st.first_row + m].model_current_A
                                                  : total_current(c.model, c.geometry, z[m] + t.gap_at_z0_m, o.bias_V));
         }
         // Expected: with drift and baseline, as a noise-free instrument would record the current.

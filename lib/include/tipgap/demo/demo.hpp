@@ -23,13 +23,16 @@ namespace tipgap {
 struct demo_options {
     // Directory of curves (*.csv, *.tsv, *.txt), each with an optional <stem>.truth.yaml and, for a
     // file in another layout, <stem>.read.yaml: the reader options it is read with
-    // (load_reader_options).
+    // (load_reader_options). A curve is fitted with the linear model unless its <stem>.fit.yaml
+    // says `model: offset` (the only key).
     std::string scans_dir;
     double bias_V = 0.1;            // bias of the prediction sweep (V)
     double gap_min_m = 0.3e-9;      // prediction sweep (m), 0 < min < max
     double gap_max_m = 1.5e-9;
     int gap_points = 25;            // [2, 10000]
-    bool model_comparison = true;   // fit the model (mean work function, gap offset) to each sweep
+    // Fit the model (mean work function, gap offset) to each sweep fitted with the linear model
+    // (the model comparison fits no current offset, so offset-model curves are left out).
+    bool model_comparison = true;
     bool resonances = true;         // analyse the z(V) traces in <scans_dir>/resonances/, if any
     int threads = 0;                // 0 = all cores
 };
@@ -44,7 +47,12 @@ struct demo_curve {
     std::optional<synth_sweep_truth> sweep_truth;
     // κ truth (the expected value, with the instrument's drift and baseline) inside the fit's
     // confidence interval at fit.confidence_level.
+    // truth_decay_constant_per_m: the expected κ for the linear model; for the offset model the
+    // model's own κ over the same points (drift-free, without the baseline it removes), 1/m.
+    double truth_decay_constant_per_m = 0.0;
     bool kappa_within = false;
+    // Offset model only: the synthesiser's baseline inside the offset's interval (± t · stderr).
+    bool offset_within = false;
     // Same test for the mean work function of the model comparison (interval: ± t · stderr).
     bool work_function_within = false;
 

@@ -27,6 +27,8 @@ const std::vector<column<plan_point>>& demo_plan_columns();
 struct demo_tally {
     std::size_t compared = 0;
     std::size_t kappa_within = 0;
+    std::size_t offsets_compared = 0;  // offset-model fits with a truth file
+    std::size_t offset_within = 0;     // of those, the baseline inside the offset's interval
 };
 demo_tally tally(const demo_report& r);
 

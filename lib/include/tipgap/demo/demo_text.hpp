@@ -11,8 +11,9 @@ namespace tipgap {
 // '\n'-terminated. r.sweep must not be empty; o: the options r was made with.
 std::string demo_overview_text(const demo_report& r, const demo_options& o);
 
-// The fit table of the demo curves with their truth, the tally of kappa intervals holding it, the
-// resonance table (when there are traces) and a note for each file without a truth file.
+// The fit table of the demo curves with their truth, the tally of kappa (and, for offset-model
+// fits, offset) intervals holding it, the resonance table (when there are traces) and a note for
+// each file without a truth file.
 std::string demo_results_text(const demo_report& r, const demo_options& o);
 
 // Writes prediction.csv, fits.csv, demo.json, prediction.png and one figure per fitted sweep

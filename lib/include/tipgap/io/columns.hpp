@@ -178,6 +178,8 @@ std::string format_table(const std::vector<column<T>>& columns, const Rows& rows
         for (const T& row : rows)
             if (const cell v = c.get(row); const double* x = std::get_if<double>(&v.value))
                 if (std::isfinite(*x)) largest = std::max(largest, std::abs(*x));
+        // All zero (a single z(V) point's Δz): lengths read in nm, the others in the base unit.
+        if (largest == 0 && c.reading_unit == "m") largest = 1e-9;
         const auto [f, prefix] = reading_prefix(largest, c.reading_unit == "m" ? 1e-12 : 1e-15);
         head.push_back({c.label + " [" + prefix + c.reading_unit + "]", c.width, c.left});
         factor.push_back(f);
