@@ -16,7 +16,7 @@ constexpr key_name flag_names[] = {
     {"", "bias", "--bias"},
     {"", "current", "--current"},
     {"table", "samples", "--samples"},
-    // junction_overlay (cli/junction.cpp)
+    // junction_overlay (cli/shared_flags.cpp)
     {"", "tip.material", "--tip"},
     {"", "sample.material", "--sample"},
     {"", "tip.work_function", "--tip-work-function"},
