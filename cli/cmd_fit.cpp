@@ -7,11 +7,11 @@
 #include <vector>
 
 #include "command.hpp"
-#include "fit_flags.hpp"
 #include "output.hpp"
-#include "read_flags.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fit_report.hpp"
 #include "tipgap/fit/fit_summary.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/io/curve_io.hpp"
@@ -33,39 +33,6 @@ struct fit_args {
     std::string plot;         // --plot FILE: one figure per fitted sweep
     std::string config_path;  // --config FILE: model comparison
 };
-
-// The model comparison of each sweep, in prose under the table.
-std::string model_comparison(const std::vector<fitted_sweep>& all) {
-    std::string out;
-    for (const fitted_sweep& f : all) {
-        if (!f.model) continue;
-        out += fmt::format("  {} ({}): ", f.curve->file, to_string(f.result.direction)) +
-               format_line(model_fit_columns(), *f.model,
-                           "mean work function {mean_work_function_eV} eV, gap = z + {gap_offset_nm} nm (gaps "
-                           "{gap_min_nm}..{gap_max_nm} nm), ln prefactor {ln_prefactor}, {status}\n"
-                           "    phi_ap {apparent_barrier_eV} eV is {work_function_minus_apparent_barrier_eV} eV below "
-                           "the mean work function: the image potential lowers and rounds the barrier, so the apparent "
-                           "barrier height is lower than the mean work function (the fitted model itself gives phi_ap "
-                           "{model_apparent_barrier_eV} eV over these gaps)\n");
-        for (const std::string& w : f.model->warnings) out += fmt::format("    warning: {}\n", w);
-    }
-    if (out.empty()) return out;
-    return "model comparison (tunnelling model with image potential; free: mean work function, gap offset, ln "
-           "prefactor):\n" + out;
-}
-
-// What the table leaves out: warnings, another confidence level, where the plots went.
-std::string notes(const std::vector<fitted_sweep>& all) {
-    std::string out;
-    for (const fitted_sweep& f : all)
-        for (const std::string& w : f.result.warnings) out += fmt::format("  {} ({}): {}\n", f.curve->file, to_string(f.result.direction), w);
-    // The header says 95 %; say so when another level was asked for.
-    if (!all.empty() && all.front().result.confidence_level != 0.95)
-        out += fmt::format("  intervals are at {:.3g} % confidence\n", 100.0 * all.front().result.confidence_level);
-    for (const fitted_sweep& f : all)
-        if (!f.plot_path.empty()) out += fmt::format("  plot of {} ({}): {}\n", f.curve->file, to_string(f.result.direction), f.plot_path);
-    return out.empty() ? out : "notes:\n" + out;
-}
 
 // The reader's notes of every file (a bias, temperature or unit given that the file states
 // otherwise), on stderr now and in the JSON document.
@@ -93,21 +60,13 @@ void run(const fit_args& args) {
         for (fitted_sweep& f : fit_and_compare(*curves.back(), options, model_config ? &*model_config : nullptr))
             all.push_back(std::move(f));
     }
-    std::vector<fit_plot_source> sources;
-    for (const fitted_sweep& f : all) sources.push_back({f.curve->file, f.result.direction});
-    const std::vector<std::string> paths = args.plot.empty() ? std::vector<std::string>{} : fit_plot_paths(args.plot, sources);
-    for (std::size_t k = 0; k < paths.size(); ++k) {
-        fitted_sweep& f = all[k];
-        f.plot_path = paths[k];
-        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, fit_plot_title(sources[k])),
-                           f.plot_path);
-    }
+    if (!args.plot.empty()) write_fit_plots(all, args.plot);
     // Several sweeps: their weighted mean, spread and approach-retract difference.
     std::vector<fit_result> results;
     for (const fitted_sweep& f : all) results.push_back(f.result);
     const fit_summary summary = summarise_fits(results);
     report_frame frame{.rows_key = "curves",
-                       .after_table = model_comparison(all) + notes(all) + (all.size() > 1 ? describe_summary(summary) : ""),
+                       .after_table = model_comparison_text(all) + fit_notes_text(all) + (all.size() > 1 ? describe_summary(summary) : ""),
                        .layout = {.rule = false}};
     frame.json.set("notes", reader_notes(curves));
     if (all.size() > 1) frame.json.set("summary", to_record(fit_summary_columns(), summary));

@@ -2,28 +2,17 @@
 // tipgap::make_barrier_map, and writes the matrices, the summary and the figures into an output
 // directory that appears whole or not at all.
 #include <chrono>
-#include <cstdio>
-#include <filesystem>
-#include <future>
 #include <fmt/format.h>
 #include <memory>
 #include <string>
 
 #include "command.hpp"
-#include "fit_flags.hpp"
 #include "flags.hpp"
 #include "output.hpp"
-#include "ranges.hpp"
-#include "read_flags.hpp"
-#include "tipgap/core/constants.hpp"
-#include "tipgap/figures/map_figures.hpp"
-#include "tipgap/grid/map.hpp"
-#include "tipgap/grid/map_files.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/core/progress.hpp"
+#include "tipgap/figures/map_directory.hpp"
 #include "tipgap/grid/map_checks.hpp"
-#include "tipgap/io/atomic_directory.hpp"
-#include "tipgap/io/atomic_file.hpp"
-#include "tipgap/plot/plot.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -54,56 +43,6 @@ map_figure_options to_map_figure_options(const std::string& range) {
     return o;
 }
 
-std::string default_output_dir(const std::string& grid) {
-    std::filesystem::path p(grid);
-    while (p.has_parent_path() && p.filename().empty()) p = p.parent_path();  // "dir/"
-    p.replace_extension();
-    return p.string() + "_map";
-}
-
-// The matrices and the quality codes, each file atomically.
-void write_matrices(const barrier_map& m, const atomic_directory& dir) {
-    const scaling to_eV = times(1.0 / si::electron_volt);
-    write_file_atomically(dir.file("apparent_barrier_eV.csv"),
-                          map_matrix_csv(m, "apparent barrier height [eV]", m.apparent_barrier_J, to_eV));
-    write_file_atomically(dir.file("decay_constant_per_nm.csv"),
-                          map_matrix_csv(m, "decay constant [1/nm]", m.decay_constant_per_m, times(1e-9)));
-    write_file_atomically(dir.file("stderr_apparent_barrier_eV.csv"),
-                          map_matrix_csv(m, "standard error of the apparent barrier height [eV]", m.apparent_barrier_stderr_J, to_eV));
-    write_file_atomically(dir.file("quality.csv"), map_quality_csv(m));
-}
-
-// The matrices on a second thread (formatting and fsync waits) while this one draws the figures;
-// PLplot is used from this thread only.
-void write_maps(const barrier_map& m, const atomic_directory& dir, const map_figure_options& figure, bool figures) {
-    auto matrices = std::async(std::launch::async, [&] { write_matrices(m, dir); });
-    if (figures) {
-        plot::write_figure(barrier_map_figure(m, figure), dir.file("barrier_map.png"));
-        plot::write_figure(stderr_map_figure(m), dir.file("stderr_map.png"));
-        plot::write_figure(quality_map_figure(m), dir.file("quality_map.png"));
-        plot::write_figure(barrier_histogram_figure(m), dir.file("barrier_histogram.png"));
-    }
-    matrices.get();
-}
-
-void print_summary(const barrier_map& m, const std::string& out_dir) {
-    const double to_eV = 1.0 / si::electron_volt;
-    std::string counts;
-    for (std::size_t q = 0; q < pixel_quality_count; ++q)
-        counts += fmt::format("{}{} {}", q ? ", " : "", to_string(static_cast<pixel_quality>(q)), m.quality_counts[q]);
-    fmt::print("tipgap map: {} x {} pixels, {} samples -> {}\n", m.nx, m.ny, m.grid.samples, out_dir);
-    if (m.barrier.count > 0) {
-        fmt::print("  apparent barrier: {} eV (median ± MAD-based σ), {} eV (mean ± standard deviation), {} pixels with a value\n",
-                   with_uncertainty(m.barrier.median * to_eV, m.barrier.robust_spread * to_eV),
-                   with_uncertainty(m.barrier.mean * to_eV, m.barrier.standard_deviation * to_eV), m.barrier.count);
-    } else {
-        fmt::print("  apparent barrier: no pixel has a value\n");
-    }
-    fmt::print("  quality: {}\n", counts);
-    if (m.grid.missing > 0)
-        fmt::print("  partial grid: {} of {} pixels missing (quality 'missing', NaN in the maps)\n", m.grid.missing, m.nx * m.ny);
-}
-
 void run(const map_args& a) {
     const auto t0 = std::chrono::steady_clock::now();
     map_options o;
@@ -117,20 +56,15 @@ void run(const map_args& a) {
     const map_figure_options figure = to_map_figure_options(a.range);
     o.read.progress = report_progress;  // the line itself: core/progress.hpp, opened by main.cpp
 
-    const std::string out_dir = a.output_dir.empty() ? default_output_dir(a.grid) : a.output_dir;
+    const std::string out_dir = a.output_dir.empty() ? default_map_directory(a.grid) : a.output_dir;
     atomic_directory dir(out_dir, map_file_names());  // before the work, so that an unusable target fails at once
     const barrier_map m = make_barrier_map(a.grid, o);
     print_warnings(m.grid.warnings, m.grid.path);
     print_notes(m.grid.notes, m.grid.path);
     require_fitted_pixel(m);
-    const auto t1 = std::chrono::steady_clock::now();
-    write_maps(m, dir, figure, !a.no_figures);
-    const auto t2 = std::chrono::steady_clock::now();
-    const map_run run{"tipgap map", TIPGAP_VERSION, resolved_threads(o.read), std::chrono::duration<double>(t2 - t1).count(),
-                      std::chrono::duration<double>(t2 - t0).count()};
-    write_file_atomically(dir.file("summary.json"), json_text(map_summary(m, o, run)));
+    write_map_directory(m, o, dir, {figure, !a.no_figures, {"tipgap map", TIPGAP_VERSION, resolved_threads(o.read)}, t0});
     dir.commit();
-    if (!a.quiet) print_summary(m, out_dir);
+    if (!a.quiet) fmt::print("{}", map_summary_text(m, out_dir));
 }
 
 }  // namespace

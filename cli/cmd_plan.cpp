@@ -6,10 +6,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
-#include "plot_flags.hpp"
-#include "ranges.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/plan/plan.hpp"
@@ -41,13 +39,9 @@ void run(const plan_args& a) {
     if (!a.reference_bias.empty()) options.reference_bias_V = flag_quantity(a.reference_bias, dimension::voltage, "--reference-bias");
     const auto points = naming_flags("plan", flag_error::own_kind,
                                      [&] { return plan_setpoints(c, all_pairs(currents, biases, false), options, a.threads); });
-    std::vector<uncertainty_summary> u(points.size());
-    if (c.sigma.any()) {
-        uncertainty_options uo = a.uncertainty;
-        uo.threads = a.threads;
-        for (std::size_t i = 0; i < points.size(); ++i)
-            if (points[i].reachable()) u[i] = plan_uncertainty(c, points[i].setpoint_A, points[i].bias_V, options, uo);
-    }
+    uncertainty_options uo = a.uncertainty;
+    uo.threads = a.threads;
+    const std::vector<uncertainty_summary> u = plan_uncertainties(c, points, options, uo);
     print_first_warnings(
         points, [](const plan_point& p) { return fmt::format("{:g} A at {:g} V", std::abs(p.setpoint_A), p.bias_V); },
         "setpoints");

@@ -4,10 +4,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
-#include "plot_flags.hpp"
-#include "ranges.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/config/config_summary.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/plan/predict.hpp"
@@ -38,12 +36,9 @@ void run(const predict_args& a) {
     refuse_huge_grid(gaps.size(), biases.size(), "--points");
     const auto points = all_pairs(gaps, biases, true);  // bias outer, gap inner
     const auto results = naming_flags("predict", flag_error::own_kind, [&] { return predict_points(c, points, a.threads); });
-    std::vector<uncertainty_summary> u(results.size());
-    if (c.sigma.any()) {
-        uncertainty_options uo = a.uncertainty;
-        uo.threads = a.threads;
-        for (std::size_t i = 0; i < points.size(); ++i) u[i] = predict_uncertainty(c, points[i].first, points[i].second, uo);
-    }
+    uncertainty_options uo = a.uncertainty;
+    uo.threads = a.threads;
+    const std::vector<uncertainty_summary> u = predict_uncertainties(c, points, uo);
     print_first_warnings(
         results, [](const prediction& r) { return fmt::format("gap {:.4g} nm, bias {:.4g} V", r.q.gap_m * 1e9, r.q.bias_V); },
         "points");

@@ -6,8 +6,8 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/figures/resonance_plot.hpp"
 #include "tipgap/fit/resonance_columns.hpp"
 #include "tipgap/fit/resonances.hpp"
@@ -33,15 +33,6 @@ resonance_options options_of(const resonance_args& a) {
     return o;
 }
 
-std::string text_of(const resonance_args& a, const config& c, const bias_trace& t, const resonance_result& r) {
-    const auto rows = resonance_peak_rows(r);
-    if (a.format == output_format::json) return json_text(resonance_document(t, c, r));
-    if (a.format == output_format::csv) return resonance_summary_text(r, "# ") + format_csv(resonance_peak_columns(), rows);
-    return fmt::format("# {} · {} trace · {} points · smoothing {:g} V\n", t.file, to_string(t.kind), t.bias_V.size(),
-                       r.smoothing_width_V) +
-           format_table(resonance_peak_columns(), rows) + resonance_summary_text(r, "");
-}
-
 void run(const resonance_args& a) {
     const config c = load_junction(a.junction);
     if (!a.plot_path.empty()) plot::format_from_path(a.plot_path);  // a bad extension fails before the work
@@ -50,7 +41,7 @@ void run(const resonance_args& a) {
     const resonance_result r = analyse_resonances(c, t, o);
     const bool asked = r.status == resonance_status::formula_only && a.formula_only;
     if (r.status != resonance_status::ok && !asked) print_warnings({r.message}, a.file);
-    write_output(a.output, text_of(a, c, t, r));
+    write_output(a.output, resonance_report(a.format, t, c, r));
     if (!a.plot_path.empty()) plot::write_figure(make_resonance_figure(t, r, a.file), a.plot_path);
 }
 

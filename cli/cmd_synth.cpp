@@ -8,12 +8,12 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
-#include "synth_zv.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
+#include "tipgap/synth/zv_synth.hpp"
 
 namespace tipgap::cli {
 namespace {
@@ -29,7 +29,7 @@ struct synth_args {
     std::string tip_label, sample_label;
     std::string grid, pitch = "1nm", pattern = "disc", disc_radius, disc_centre, disc_wf = "4.3eV";
     std::size_t points_per_curve = 128;
-    bool zv = false;  // --zv: a constant-current z(V) trace instead (synth_zv.cpp); bias empty: 100mV or 4V..10V
+    bool zv = false;  // --zv: a constant-current z(V) trace instead (run_zv); bias empty: 100mV or 4V..10V
     std::string current, z_noise;
 };
 
@@ -84,11 +84,29 @@ synth_grid_options grid_opts(const synth_args& a) {
     return g;
 }
 
+// --zv: flags -> tipgap::zv_synth_options -> synthesise_zv_trace -> files.
+void run_zv(const config& c, const synth_args& a, const std::string& truth, const std::string& line) {
+    zv_synth_options o;
+    const std::string bias = a.bias.empty() ? "4V..10V" : a.bias;
+    const std::size_t dots = bias.find("..");
+    if (dots == std::string::npos) throw_usage("--bias", fmt::format("--zv needs a range FROM..TO, e.g. 4V..10V, got '{}'", bias));
+    o.bias_from_V = flag_quantity(bias.substr(0, dots), dimension::voltage, "--bias");
+    o.bias_to_V = flag_quantity(bias.substr(dots + 2), dimension::voltage, "--bias");
+    if (!a.current.empty()) o.current_A = flag_quantity(a.current, dimension::current, "--current");
+    if (!a.z_noise.empty()) o.z_noise_m = flag_quantity(a.z_noise, dimension::length, "--z-noise");
+    o.points = a.points;
+    o.seed = a.seed;
+    naming_flags("synth", flag_error::usage, [&] { o.validate(c.model); });
+    const zv_synth_trace t = synthesise_zv_trace(c, o);
+    write_zv_trace(t, c, o, a.out, truth, line);
+    fmt::print("wrote {} ({} points, synthetic z(V) at {:g} nA) and {}\n", a.out, t.bias_V.size(), o.current_A * 1e9, truth);
+    fmt::print("{}", zv_trace_summary(t));
+}
+
 void run(const synth_args& a, const std::string& line) {
     const config c = load_junction(a.junction);
     if (a.zv) {
-        const std::string truth = a.truth.empty() ? truth_path_for(a.out) : a.truth;
-        return run_synth_zv(c, {a.bias, a.current, a.z_noise, a.points, a.seed, a.out, truth, line});
+        return run_zv(c, a, a.truth.empty() ? truth_path_for(a.out) : a.truth, line);
     }
     synth_options o = synth_opts(a);
     if (!a.grid.empty()) o.points = a.points_per_curve;
@@ -98,14 +116,7 @@ void run(const synth_args& a, const std::string& line) {
         const synth_curve curve = synthesise_curve(c, o);
         write_synth_curve(curve, c, o, a.out, truth, line);
         fmt::print("wrote {} ({} rows, synthetic) and {}\n", a.out, curve.samples.size(), truth);
-        fmt::print("model over {:.3g}..{:.3g} nm: {}", o.gap_min_m / 1e-9, o.gap_max_m / 1e-9,
-                   format_line(synth_truth_columns(), curve.truth,
-                               "kappa {decay_constant_range_per_nm} 1/nm, phi_ap {apparent_barrier_range_eV} eV (mean "
-                               "work function {mean_work_function_eV} eV)\n"));
-        for (const synth_sweep_truth& s : curve.truth.sweeps)
-            fmt::print("{}", format_line(synth_sweep_columns(), s,
-                                         "  {direction}: {usable_points} usable points, expected fit kappa "
-                                         "{decay_constant_expected_per_nm} 1/nm, phi_ap {apparent_barrier_expected_eV} eV\n"));
+        fmt::print("{}", synth_curve_summary(curve, o));
         return;
     }
     const synth_grid_options g = grid_opts(a);
@@ -113,10 +124,7 @@ void run(const synth_args& a, const std::string& line) {
     const synth_grid_truth t = naming_flags("synth", flag_error::usage, [&] { return write_synth_grid(c, o, g, a.out, truth, line); });
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     fmt::print("wrote {} ({}x{} pixels, {} rows, synthetic) and {} in {:.2f} s\n", a.out, g.nx, g.ny, t.rows, truth, seconds);
-    for (const grid_region_truth& r : t.regions)
-        fmt::print("{}", format_line(grid_region_columns(), r,
-                                     "  {name}: {pixels} pixels, sample work function {sample_work_function_eV} eV, phi_ap "
-                                     "{apparent_barrier_expected_eV} eV (kappa {decay_constant_expected_per_nm} 1/nm)\n"));
+    fmt::print("{}", synth_grid_summary(t));
 }
 
 }  // namespace

@@ -4,11 +4,9 @@
 
 #include "command.hpp"
 #include "flags.hpp"
-#include "junction.hpp"
 #include "output.hpp"
-#include "ranges.hpp"
+#include "shared_flags.hpp"
 #include "tipgap/config/config_summary.hpp"
-#include "tipgap/core/constants.hpp"
 #include "tipgap/plan/reference_table.hpp"
 #include "tipgap/plan/reference_table_columns.hpp"
 
@@ -22,15 +20,6 @@ struct table_args {
     junction_flags junction;
 };
 
-std::string explanation(const config& c, double I, double V) {
-    const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
-    return fmt::format("# {} tip (φ_t = {:.3g} eV) · {} geometry · reference setpoint {:g} A at {:g} V\n"
-                       "# φ̄, κ = √(2mφ̄)/ħ, nm/decade = ln10/(2κ) and λ_dB = h/√(2mφ̄): rectangular barrier of "
-                       "the mean work function\n"
-                       "# gap, φ_ap and model nm/decade: the full model at the reference setpoint\n",
-                       tip, c.model.tip.work_function_J / si::electron_volt, to_string(c.geometry.kind), I, V);
-}
-
 void run(const table_args& a) {
     const config c = load_junction(a.junction);
     const double I = parse_quantity(a.current, dimension::current, location{"", 0, 0, "--current"});
@@ -41,7 +30,7 @@ void run(const table_args& a) {
                                    [&] { return reference_table(c, names, I, V, {}, a.threads); });
     for (const auto& r : rows) print_warnings(r.warnings, r.sample);
 
-    report_frame frame{.rows_key = "rows", .sort_keys = true, .before_table = explanation(c, I, V)};
+    report_frame frame{.rows_key = "rows", .sort_keys = true, .before_table = reference_table_header(c, I, V)};
     frame.json.set("command", "table");
     frame.json.set("config", config_record(c));
     record setpoint;

@@ -12,20 +12,7 @@
 #include <variant>
 #include <vector>
 
-#include "tipgap/core/enum_names.hpp"
-
-namespace tipgap::cli {
-enum class output_format { table, csv, json };
-}  // namespace tipgap::cli
-
-namespace tipgap {
-// "table", "csv", "json": the names of the output formats on the command line.
-template <>
-struct enum_names<cli::output_format> {
-    static constexpr enum_name<cli::output_format> table[] = {
-        {cli::output_format::table, "table"}, {cli::output_format::csv, "csv"}, {cli::output_format::json, "json"}};
-};
-}  // namespace tipgap
+#include "tipgap/io/report.hpp"
 
 namespace tipgap::cli {
 

@@ -7,10 +7,7 @@
 #include <CLI/CLI.hpp>
 #include <charconv>
 #include <cstdio>
-#include <exception>
 #include <fmt/format.h>
-#include <new>
-#include <string_view>
 #include <vector>
 
 #include "command.hpp"
@@ -18,21 +15,19 @@
 #include "tipgap/core/error_line.hpp"
 #include "tipgap/core/interrupt.hpp"
 #include "tipgap/core/progress.hpp"
+#include "tipgap/core/usage_message.hpp"
 #include "tipgap/io/output_path.hpp"
 #include "tipgap/io/output_transaction.hpp"
 
 namespace tipgap::cli {
 namespace {
 
-// Exit code of an internal error (a bug): EX_SOFTWARE of sysexits.h.
-constexpr int internal_error_exit = 70;
-
 template <class... F>
 struct overloaded : F... {
     using F::operator()...;
 };
 
-// The output format by its name (enum_names<output_format>, cli/command.hpp).
+// The output format by its name (enum_names<output_format>, tipgap/io/report.hpp).
 CLI::Option* add_format(CLI::App* cmd, const flag& f, output_format& format) {
     return cmd->add_option_function<std::string>(
         f.names,
@@ -140,109 +135,11 @@ std::string subcommand_list(const CLI::App& app) {
     return out;
 }
 
-bool starts_with(const std::string& s, std::string_view p) { return s.compare(0, p.size(), p) == 0; }
-bool ends_with(const std::string& s, std::string_view p) {
-    return s.size() >= p.size() && s.compare(s.size() - p.size(), p.size(), p) == 0;
-}
-// "name: rest" -> name and rest (name without spaces); false when the text is not of that form.
-bool split_name(const std::string& s, std::string& name, std::string& rest) {
-    const std::size_t colon = s.find(": ");
-    if (colon == std::string::npos || colon == 0 || s.find(' ') < colon) return false;
-    name = s.substr(0, colon);
-    rest = s.substr(colon + 2);
-    return true;
-}
-
-// The one-line text of a command-line parse error, rewritten from CLI11's wording into the format
-// above and naming the help command of the subcommand being parsed.
-std::string usage_message(const CLI::App& app, const CLI::ParseError& e) {
-    const std::string what = e.what();
-    const std::string help = fmt::format("see '{} --help'", command_name(app));
-    // CLI11's wordings (CLI/Error.hpp, CLI/Validators.hpp of CLI11 2.1), matched as plain text.
-    if (what == "A subcommand is required") {
-        const std::vector<std::string> rest = app.remaining();
-        if (!rest.empty()) {
-            return fmt::format("{} is not a command; expected one of: {} (see 'tipgap --help')",
-                               quote_input(rest.front()), subcommand_list(app));
-        }
-        return fmt::format("no command given; expected one of: {} (see 'tipgap --help')", subcommand_list(app));
-    }
-    constexpr std::string_view is_required = " is required";
-    if (ends_with(what, is_required) && what.find(' ') == what.size() - is_required.size()) {
-        const std::string name = what.substr(0, what.size() - is_required.size());
-        return fmt::format("{}: missing; expected {} ({})", name, option_usage(app, name), help);
-    }
-    for (std::string_view prefix : {"The following argument was not expected: ",
-                                    "The following arguments were not expected: "}) {
-        if (!starts_with(what, prefix)) continue;
-        // CLI11 lists the extras last first; put them back in command-line order.
-        std::vector<std::string> words;
-        const std::string list = what.substr(prefix.size());
-        for (std::size_t i = 0; i <= list.size();) {
-            std::size_t sp = list.find(' ', i);
-            if (sp == std::string::npos) sp = list.size();
-            if (sp > i) words.insert(words.begin(), list.substr(i, sp - i));
-            i = sp + 1;
-        }
-        std::string in_order;
-        for (const auto& w : words) in_order += (in_order.empty() ? "" : " ") + w;
-        return fmt::format("{} not understood; expected only the options and arguments listed by '{} --help'",
-                           quote_input(in_order), command_name(app));
-    }
-    std::string name, rest;
-    if (split_name(what, name, rest)) {
-        // "--points: Value 1 not in range 2 to 1000000"
-        const std::size_t in_range = rest.find(" not in range ");
-        const std::size_t to = rest.rfind(" to ");
-        if (starts_with(rest, "Value ") && in_range != std::string::npos && to != std::string::npos && to > in_range) {
-            const std::string value = rest.substr(6, in_range - 6);
-            const std::string lo = rest.substr(in_range + 14, to - in_range - 14);
-            const std::string hi = rest.substr(to + 4);
-            return fmt::format("{}: {} is not allowed; expected a number from {} to {} ({})", name, quote_input(value),
-                               lo, hi, help);
-        }
-        // "--gap: 1 required TEXT missing"
-        if (ends_with(rest, " missing") && rest.find(" required ") != std::string::npos) {
-            return fmt::format("{}: the value is missing; expected {} ({})", name, option_usage(app, name), help);
-        }
-    }
-    // "Could not convert: --confidence = abc"
-    constexpr std::string_view convert = "Could not convert: ";
-    if (starts_with(what, convert)) {
-        const std::size_t eq = what.find(" = ", convert.size());
-        if (eq != std::string::npos) {
-            return fmt::format("{}: {} is not a valid value; expected a number ({})",
-                               what.substr(convert.size(), eq - convert.size()), quote_input(what.substr(eq + 3)), help);
-        }
-    }
-    // "The value abc is not an allowed value for --confidence"
-    constexpr std::string_view value_prefix = "The value ";
-    constexpr std::string_view not_allowed = " is not an allowed value for ";
-    if (starts_with(what, value_prefix)) {
-        const std::size_t at = what.rfind(not_allowed);
-        if (at != std::string::npos && at >= value_prefix.size()) {
-            return fmt::format("{}: {} is not a valid value; expected a number ({})",
-                               what.substr(at + not_allowed.size()),
-                               quote_input(what.substr(value_prefix.size(), at - value_prefix.size())), help);
-        }
-    }
-    return fmt::format("{} ({})", what, help);
-}
-
 int report_parse_error(const CLI::App& app, const CLI::ParseError& e) {
-    std::fprintf(stderr, "tipgap: usage error: %s\n", one_line(usage_message(app, e)).c_str());
+    const usage_context c{command_name(app), subcommand_list(app), app.remaining(),
+                          [&app](const std::string& name) { return option_usage(app, name); }};
+    std::fprintf(stderr, "tipgap: usage error: %s\n", one_line(usage_message(e.what(), c)).c_str());
     return static_cast<int>(error_kind::usage);
-}
-
-int report_error(const tipgap::error& e) {
-    std::fprintf(stderr, "%s\n", error_line(e).c_str());
-    return static_cast<int>(e.kind());
-}
-
-int report_internal_error(const std::string& what) {
-    std::fprintf(stderr, "tipgap: internal error (this is a bug; please report it with the command line): %s\n",
-                 one_line(what).c_str());
-    return internal_error_exit;
 }
 
 }  // namespace
@@ -269,14 +166,10 @@ int main(int argc, char** argv) {
         return app.exit(e);
     } catch (const CLI::ParseError& e) {
         return report_parse_error(app, e);
-    } catch (const tipgap::error& e) {
-        return report_error(e);
-    } catch (const std::bad_alloc&) {
-        return report_internal_error("out of memory");
-    } catch (const std::exception& e) {
-        return report_internal_error(e.what());
     } catch (...) {
-        return report_internal_error("an exception that is not a std::exception");
+        const tipgap::failure f = tipgap::current_failure();  // a tipgap::error, or a bug
+        std::fprintf(stderr, "%s\n", f.line.c_str());
+        return f.exit_code;
     }
     return 0;
 }

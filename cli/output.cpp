@@ -1,5 +1,8 @@
 #include "output.hpp"
 
+#include <cmath>
+
+#include "flags.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/io/atomic_file.hpp"
 
@@ -20,6 +23,27 @@ std::vector<flag> uncertainty_flags(uncertainty_options& o) {
             {"--seed", "Seed of the Monte Carlo draws (default 1); the same seed gives the same result", &o.seed}};
 }
 
+std::vector<flag> plot_flag_list(plot_flags& f, bool with_bias) {
+    std::vector<flag> out{{"--plot-floor",
+                           "Smallest |current| a figure's log current axis shows (default 1fA); curves below it are "
+                           "clipped",
+                           &f.floor, "CURRENT"}};
+    if (with_bias)
+        out.push_back({"--plot-bias",
+                       "Bias of the figure's I(s), phi_ap(s) and I(V) panels: the planned setpoint nearest to it "
+                       "(default: the first)",
+                       &f.bias, "BIAS"});
+    return out;
+}
+
+figure_options to_figure_options(const plot_flags& f) {
+    figure_options o;
+    if (!f.floor.empty()) o.current_floor_A = std::abs(flag_quantity(f.floor, dimension::current, "--plot-floor"));
+    if (!f.bias.empty()) o.side_bias_V = flag_quantity(f.bias, dimension::voltage, "--plot-bias");
+    if (!(o.current_floor_A > 0)) throw_usage("--plot-floor", "must be a current above 0 A");
+    return o;
+}
+
 void write_output(const std::string& path, std::string_view content) {
     if (path.empty() || path == "-") {
         write_stdout(content);
@@ -36,26 +60,6 @@ void print_warnings(const std::vector<std::string>& warnings, const std::string&
             fmt::print(stderr, "tipgap: warning: {}: {}\n", context, w);
         }
     }
-}
-
-std::string config_line(const config& c) {
-    return fmt::format("# {} · T = {} K · image {} · method {} · geometry {}", c.source, c.model.temperature_K,
-                       to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind));
-}
-
-const uncertainty_summary* first_uncertain(const std::vector<uncertainty_summary>& u) {
-    for (const auto& x : u)
-        if (!x.inputs.empty()) return &x;
-    return nullptr;
-}
-
-std::string uncertainty_line(const std::vector<uncertainty_summary>& u, const char* of) {
-    const uncertainty_summary* x = first_uncertain(u);
-    if (!x) return "";
-    if (x->samples > 0)
-        return fmt::format("# ± : Monte Carlo standard uncertainty{}, {} draws, seed {} (inputs: {})\n", of, x->samples,
-                           x->seed, fmt::join(x->inputs, ", "));
-    return fmt::format("# ± : linear propagation (inputs: {})\n", fmt::join(x->inputs, ", "));
 }
 
 }  // namespace tipgap::cli

@@ -211,3 +211,21 @@ TEST(config, overlay_text_is_read_with_units_and_names_and_errors_name_the_key) 
     EXPECT_EQ(key_of({.image = "mirror"}), "barrier.image_potential");
     EXPECT_EQ(key_of({.method = "fast"}), "method");
 }
+
+// apply_overlay with a namer: each value's origin names the overlay field that set it (the CLI
+// passes its flag table, so --show-config says "# command line (--tip)").
+TEST(config, overlay_origin_names_the_field_that_set_each_value) {
+    config c = default_config();
+    junction_overlay o;
+    o.tip_material = "Pt";
+    o.sample_work_function_J = 4.4 * 1.602176634e-19;
+    o.temperature_K = 77.0;
+    apply_overlay(c, o, "command line", [](std::string_view field) { return "F:" + std::string(field); });
+    EXPECT_EQ(c.origin.at("tip.material"), "command line (F:tip.material)");
+    EXPECT_EQ(c.origin.at("tip.fermi_energy"), "command line (F:tip.material)");
+    EXPECT_EQ(c.origin.at("sample.work_function"), "command line (F:sample.work_function)");
+    EXPECT_EQ(c.origin.at("sample.material"), "command line (F:sample.work_function)");  // now "custom"
+    EXPECT_EQ(c.origin.at("temperature"), "command line (F:temperature)");
+    EXPECT_TRUE(c.origin.count("method") == 0 || c.origin.at("method").find("command line") == std::string::npos);
+    EXPECT_EQ(c.source, "<default> + command line");
+}

@@ -18,6 +18,8 @@
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/grid/grid.hpp"
 #include "tipgap/grid/map.hpp"
+#include "tipgap/grid/map_files.hpp"
+#include "tipgap/figures/map_directory.hpp"
 
 namespace {
 
@@ -151,3 +153,28 @@ TEST(grid_map, poor_fit_when_the_curve_is_not_one_exponential) {
 }
 
 }  // namespace
+
+TEST(grid_map, output_directory_holds_every_file_and_the_summary_reads_the_map) {
+    EXPECT_EQ(default_map_directory("scan.csv"), "scan_map");
+    EXPECT_EQ(default_map_directory("runs/day2.grid.csv"), "runs/day2.grid_map");
+    EXPECT_EQ(default_map_directory("pixels/"), "pixels_map");
+    const grid_spec g;
+    temp_dir d;
+    const map_options o = options_with(2);
+    const barrier_map m = make_barrier_map(d.file("disc.csv", grid_text(g)), o);
+    const std::string out = d.file("disc_map");
+    atomic_directory dir(out, map_file_names());
+    write_map_directory(m, o, dir, {.figures = false, .run = {.version = "test", .threads = 2}});
+    dir.commit();
+    for (const std::string& name : map_file_names()) {
+        const bool figure = name.ends_with(".png");
+        EXPECT_EQ(std::filesystem::exists(out + "/" + name), !figure) << name;
+    }
+    std::ifstream in(out + "/summary.json");
+    const std::string summary((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    EXPECT_NE(summary.find("\"version\": \"test\""), std::string::npos);
+    const std::string text = map_summary_text(m, "out");
+    EXPECT_EQ(text.rfind("tipgap map: 16 x 16 pixels, 16384 samples -> out\n  apparent barrier: ", 0), 0u) << text;
+    EXPECT_NE(text.find("256 pixels with a value\n  quality: ok 256, "), std::string::npos) << text;
+    EXPECT_EQ(text.find("partial grid"), std::string::npos);
+}

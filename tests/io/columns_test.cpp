@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "tipgap/io/columns.hpp"
+#include "tipgap/io/report.hpp"
 
 using namespace tipgap;
 
@@ -219,4 +220,21 @@ TEST(columns, an_all_zero_length_column_reads_in_nanometres) {
     row.name = "a";
     const std::vector<r> zero = {row};
     EXPECT_EQ(format_table(cols, zero, {.rule = false}), "dz [nm]  I [A]\n      0      0\n");
+}
+
+TEST(columns, render_picks_the_format_and_frames_only_the_table_and_the_json) {
+    report_frame frame{.rows_key = "rows", .before_table = "# above\n", .after_table = "below\n"};
+    frame.json.set("command", "test");
+    EXPECT_EQ(render(output_format::csv, sample_columns(), rows, frame), format_csv(sample_columns(), rows));
+    EXPECT_EQ(render(output_format::table, sample_columns(), rows, frame),
+              "# above\n" + format_table(sample_columns(), rows) + "below\n");
+    record doc;
+    doc.set("command", "test");
+    doc.set("rows", to_records(sample_columns(), rows));
+    EXPECT_EQ(render(output_format::json, sample_columns(), rows, frame), json_text(doc));
+    output_format f = output_format::table;
+    EXPECT_TRUE(from_string("json", f));
+    EXPECT_EQ(f, output_format::json);
+    EXPECT_FALSE(from_string("xml", f));
+    EXPECT_EQ(accepted_names<output_format>(), "table, csv or json");
 }

@@ -102,7 +102,9 @@ TEST(paraboloid, laguerre_matches_the_adaptive_integral_over_the_domain) {
                 const auto r = paraboloid_integral_laguerre([&](double gap) { return density_sample(m, gap, V); }, 10e-9,
                                                             s, m.rel_tol, density_sample(m, s, V));
                 accepted += r.accepted;
-                if (r.accepted) EXPECT_NEAR(r.value / (per_metre * 10e-9), 1.0, kAgreement);
+                if (r.accepted) {
+                    EXPECT_NEAR(r.value / (per_metre * 10e-9), 1.0, kAgreement);
+                }
             }
     // The rule must carry the domain, not the fallback: it was accepted at every open apex when
     // this test was written (76 of 76).

@@ -145,3 +145,28 @@ TEST(uncertainty, quantile_matches_numpy_default) {
     EXPECT_DOUBLE_EQ(quantile_sorted(x, 0.975), 8.775);
     EXPECT_DOUBLE_EQ(quantile_sorted(x, 1.0), 9.0);
 }
+
+TEST(uncertainty, many_points_match_the_single_point_calls_and_skip_what_has_none) {
+    uncertainty_options o;
+    o.samples = 0;  // linear propagation only: deterministic and quick
+    const config c = small_sigma(0.01);
+    const std::vector<std::pair<double, double>> points{{0.5e-9, 0.1}, {0.7e-9, -0.2}};
+    const auto many = predict_uncertainties(c, points, o);
+    ASSERT_EQ(many.size(), 2u);
+    for (std::size_t i = 0; i < points.size(); ++i) {
+        const auto one = predict_uncertainty(c, points[i].first, points[i].second, o);
+        ASSERT_EQ(many[i].values.size(), one.values.size());
+        for (std::size_t k = 0; k < one.values.size(); ++k)
+            EXPECT_EQ(many[i].values[k].linear_stddev, one.values[k].linear_stddev) << i << " " << one.names[k];
+    }
+    // Without configured uncertainties every summary is empty.
+    for (const auto& u : predict_uncertainties(default_config(), points, o)) EXPECT_TRUE(u.inputs.empty());
+    // plan: an unreachable setpoint (1 A at 1 mV) gets an empty summary, a reachable one the single call's.
+    const auto plan = plan_setpoints(c, {{1e-9, 0.1}, {1.0, 1e-3}}, {}, 1);
+    ASSERT_EQ(plan.size(), 2u);
+    ASSERT_TRUE(plan[0].reachable());
+    ASSERT_FALSE(plan[1].reachable());
+    const auto u = plan_uncertainties(c, plan, {}, o);
+    EXPECT_EQ(u[0].values[0].linear_stddev, plan_uncertainty(c, 1e-9, 0.1, {}, o).values[0].linear_stddev);
+    EXPECT_TRUE(u[1].inputs.empty());
+}

@@ -18,7 +18,9 @@
 #include "tipgap/core/enum_names.hpp"
 #include "tipgap/core/error.hpp"
 #include "tipgap/core/error_line.hpp"
+#include "tipgap/core/key_names.hpp"
 #include "tipgap/core/units.hpp"
+#include "tipgap/core/usage_message.hpp"
 
 #include "tipgap/model/barrier.hpp"
 #include "tipgap/model/closed_forms.hpp"
@@ -43,6 +45,7 @@
 
 #include "tipgap/fit/fit.hpp"
 #include "tipgap/fit/fit_columns.hpp"
+#include "tipgap/fit/fit_report.hpp"
 #include "tipgap/fit/fit_summary.hpp"
 #include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/fit/model_fit.hpp"
@@ -58,6 +61,7 @@
 #include "tipgap/io/columns.hpp"
 #include "tipgap/io/curve_arrays.hpp"
 #include "tipgap/io/curve_io.hpp"
+#include "tipgap/io/report.hpp"
 
 #include "tipgap/synth/synth.hpp"
 #include "tipgap/synth/synth_columns.hpp"
@@ -65,9 +69,11 @@
 #include "tipgap/plot/plot.hpp"
 
 #include "tipgap/figures/demo_figures.hpp"
+#include "tipgap/figures/map_directory.hpp"
 #include "tipgap/figures/figures.hpp"
 #include "tipgap/figures/fit_plot.hpp"
 #include "tipgap/figures/map_figures.hpp"
 
 #include "tipgap/demo/demo.hpp"
 #include "tipgap/demo/demo_columns.hpp"
+#include "tipgap/demo/demo_text.hpp"

@@ -2,15 +2,14 @@
 
 #include <string>
 
+#include "tipgap/core/key_names.hpp"
+
 namespace tipgap::python {
 
 namespace {
 
 // Library key -> Python keyword. function "": every function; a function's own row comes first.
-struct keyword_name {
-    std::string_view function, key, keyword;
-};
-constexpr keyword_name keyword_names[] = {
+constexpr key_name keyword_names[] = {
     // Operating points (predict_points, solve_gap).
     {"", "gap", "gap_nm"},
     {"", "bias", "bias_V"},
@@ -66,11 +65,7 @@ constexpr keyword_name keyword_names[] = {
 }  // namespace
 
 std::string_view keyword_for(std::string_view function, std::string_view key) {
-    for (const keyword_name& k : keyword_names)
-        if (k.function == function && k.key == key) return k.keyword;
-    for (const keyword_name& k : keyword_names)
-        if (k.function.empty() && k.key == key) return k.keyword;
-    return {};
+    return name_for(keyword_names, function, key);
 }
 
 void rethrow_naming_keyword(std::string_view function, const error& e) {

@@ -1,5 +1,7 @@
 #include "tipgap/config/config_summary.hpp"
 
+#include <fmt/format.h>
+
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -36,6 +38,11 @@ record config_record(const config& c) {
     if (c.geometry.kind == geometry_kind::contact_anchored) g.set("contact_distance_nm", c.geometry.contact_distance_m * 1e9);
     r.set("geometry", g);
     return r;
+}
+
+std::string config_line(const config& c) {
+    return fmt::format("# {} · T = {} K · image {} · method {} · geometry {}", c.source, c.model.temperature_K,
+                       to_string(c.model.image), to_string(c.model.method), to_string(c.geometry.kind));
 }
 
 }  // namespace tipgap

@@ -1,6 +1,7 @@
 // The command line over a config (apply_overlay) and the merged config as YAML with each value's
 // origin (config_yaml, for --show-config).
 #include <fmt/format.h>
+#include <functional>
 
 #include "tipgap/config/config.hpp"
 #include "tipgap/core/constants.hpp"
@@ -10,23 +11,27 @@ namespace tipgap {
 
 namespace {
 
+// The origin of a value the overlay field `field` set: "command line", or "command line (--tip)"
+// when the caller names the field's flag.
+using origin_namer = std::function<std::string(std::string_view)>;
+
 void overlay_electrode(config& c, const std::string& key, electrode& e, double& sigma, const std::string& material,
-                       const std::optional<double>& work_function_J, const std::string& origin) {
+                       const std::optional<double>& work_function_J, const origin_namer& origin) {
     if (!material.empty()) {
         location w;
         w.key = key + ".material";
         const material_entry m = find_material(material, w);
         e = electrode{m.name, m.work_function_J, m.fermi_energy_J};
         sigma = 0;
-        for (const char* k : {".material", ".work_function", ".fermi_energy"}) c.origin[key + k] = origin;
+        for (const char* k : {".material", ".work_function", ".fermi_energy"}) c.origin[key + k] = origin(key + ".material");
     }
     if (work_function_J) {
         e.work_function_J = *work_function_J;
         sigma = 0;
-        c.origin[key + ".work_function"] = origin;
+        c.origin[key + ".work_function"] = origin(key + ".work_function");
         if (material.empty()) {
             e.material.clear();
-            c.origin[key + ".material"] = origin;
+            c.origin[key + ".material"] = origin(key + ".work_function");
         }
     }
 }
@@ -62,21 +67,25 @@ junction_overlay parse_overlay(const junction_text& t) {
     return o;
 }
 
-void apply_overlay(config& c, const junction_overlay& o, const std::string& origin) {
-    overlay_electrode(c, "tip", c.model.tip, c.sigma.tip_work_function_J, o.tip_material, o.tip_work_function_J, origin);
+void apply_overlay(config& c, const junction_overlay& o, const std::string& origin,
+                   const std::function<std::string(std::string_view)>& flag_of) {
+    const origin_namer named = [&](std::string_view field) {
+        return flag_of ? fmt::format("{} ({})", origin, flag_of(field)) : origin;
+    };
+    overlay_electrode(c, "tip", c.model.tip, c.sigma.tip_work_function_J, o.tip_material, o.tip_work_function_J, named);
     overlay_electrode(c, "sample", c.model.sample, c.sigma.sample_work_function_J, o.sample_material,
-                      o.sample_work_function_J, origin);
+                      o.sample_work_function_J, named);
     if (o.temperature_K) {
         c.model.temperature_K = *o.temperature_K;
-        c.origin["temperature"] = origin;
+        c.origin["temperature"] = named("temperature");
     }
     if (o.image) {
         c.model.image = *o.image;
-        c.origin["barrier.image_potential"] = origin;
+        c.origin["barrier.image_potential"] = named("barrier.image_potential");
     }
     if (o.method) {
         c.model.method = *o.method;
-        c.origin["method"] = origin;
+        c.origin["method"] = named("method");
     }
     c.model.validate();
     const bool any = !o.tip_material.empty() || !o.sample_material.empty() || o.tip_work_function_J ||

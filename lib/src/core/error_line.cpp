@@ -1,5 +1,8 @@
 #include "tipgap/core/error_line.hpp"
 
+#include <exception>
+#include <new>
+
 namespace tipgap {
 
 const char* error_label(error_kind kind) {
@@ -20,5 +23,21 @@ std::string one_line(std::string text) {
 }
 
 std::string error_line(const error& e) { return "tipgap: " + std::string(error_label(e.kind())) + ": " + one_line(e.what()); }
+
+failure current_failure() {
+    std::string what;
+    try {
+        throw;
+    } catch (const error& e) {
+        return {error_line(e), static_cast<int>(e.kind())};
+    } catch (const std::bad_alloc&) {
+        what = "out of memory";
+    } catch (const std::exception& e) {
+        what = e.what();
+    } catch (...) {
+        what = "an exception that is not a std::exception";
+    }
+    return {"tipgap: internal error (this is a bug; please report it with the command line): " + one_line(what)};
+}
 
 }  // namespace tipgap

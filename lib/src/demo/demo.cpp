@@ -103,6 +103,23 @@ double truth_decay_for(const demo_curve& d) {
                                             : d.sweep_truth->decay_constant_model_per_m;
 }
 
+// The curve files (*.csv, *.tsv, *.txt) of the demo scans directory, in name order; throws
+// tipgap::error (input) when the directory is missing or holds none.
+std::vector<std::string> demo_curve_files(const std::string& scans_dir) {
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    if (!fs::is_directory(scans_dir, ec))
+        throw_input(location{scans_dir, 0, 0, ""}, "the demo scans directory does not exist (use --scans DIR)");
+    std::vector<std::string> files;
+    for (const fs::directory_entry& e : fs::directory_iterator(scans_dir)) {
+        const std::string ext = e.path().extension().string();
+        if (e.is_regular_file() && (ext == ".csv" || ext == ".tsv" || ext == ".txt")) files.push_back(e.path().string());
+    }
+    std::sort(files.begin(), files.end());
+    if (files.empty()) throw_input(location{scans_dir, 0, 0, ""}, "no curve files (*.csv, *.tsv, *.txt) in the demo scans directory");
+    return files;
+}
+
 }  // namespace
 
 demo_report run_demo(const demo_options& o) {
@@ -121,16 +138,7 @@ demo_report run_demo(const demo_options& o) {
     for (double current : {10e-12, 100e-12, 1e-9, 10e-9}) ladder.emplace_back(current, o.bias_V);
     rep.plan = plan_setpoints(rep.cfg, ladder, plan_options{}, o.threads);
 
-    std::error_code ec;
-    if (!fs::is_directory(o.scans_dir, ec))
-        throw_input(location{o.scans_dir, 0, 0, ""}, "the demo scans directory does not exist (use --scans DIR)");
-    std::vector<std::string> files;
-    for (const fs::directory_entry& e : fs::directory_iterator(o.scans_dir)) {
-        const std::string ext = e.path().extension().string();
-        if (e.is_regular_file() && (ext == ".csv" || ext == ".tsv" || ext == ".txt")) files.push_back(e.path().string());
-    }
-    std::sort(files.begin(), files.end());
-    if (files.empty()) throw_input(location{o.scans_dir, 0, 0, ""}, "no curve files (*.csv, *.tsv, *.txt) in the demo scans directory");
+    const std::vector<std::string> files = demo_curve_files(o.scans_dir);
 
     // `tipgap fit FILE --model linear` unless the file's <stem>.fit.yaml names another model: the
     // synthesiser's expected κ is the I²-weighted line of the noise-free curve, which is the

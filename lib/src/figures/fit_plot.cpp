@@ -275,4 +275,16 @@ plot::figure make_fit_figure(const curve_sweep& sweep, const fit_result& fit, co
     return f;
 }
 
+void write_fit_plots(std::vector<fitted_sweep>& all, const std::string& path) {
+    std::vector<fit_plot_source> sources;
+    for (const fitted_sweep& f : all) sources.push_back({f.curve->file, f.result.direction});
+    const std::vector<std::string> paths = fit_plot_paths(path, sources);
+    for (std::size_t k = 0; k < paths.size(); ++k) {
+        fitted_sweep& f = all[k];
+        f.plot_path = paths[k];
+        plot::write_figure(make_fit_figure(*f.sweep, f.result, f.model ? &*f.model : nullptr, fit_plot_title(sources[k])),
+                           f.plot_path);
+    }
+}
+
 }  // namespace tipgap

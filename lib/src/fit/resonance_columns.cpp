@@ -81,4 +81,13 @@ std::string resonance_summary_text(const resonance_result& r, const std::string&
     return s;
 }
 
+std::string resonance_report(output_format f, const bias_trace& t, const config& c, const resonance_result& r) {
+    const auto rows = resonance_peak_rows(r);
+    if (f == output_format::json) return json_text(resonance_document(t, c, r));
+    if (f == output_format::csv) return resonance_summary_text(r, "# ") + format_csv(resonance_peak_columns(), rows);
+    return fmt::format("# {} · {} trace · {} points · smoothing {:g} V\n", t.file, to_string(t.kind), t.bias_V.size(),
+                       r.smoothing_width_V) +
+           format_table(resonance_peak_columns(), rows) + resonance_summary_text(r, "");
+}
+
 }  // namespace tipgap

@@ -1,6 +1,7 @@
 #include "tipgap/grid/map_files.hpp"
 
 #include <cmath>
+#include <filesystem>
 #include <fmt/format.h>
 
 #include "tipgap/core/constants.hpp"
@@ -175,6 +176,32 @@ record map_summary(const barrier_map& m, const map_options& o, const map_run& ru
     j.set("threads", run.threads);
     j.set("timings", timings(m, run));
     return j;
+}
+
+std::string default_map_directory(const std::string& grid) {
+    std::filesystem::path p(grid);
+    while (p.has_parent_path() && p.filename().empty()) p = p.parent_path();  // "dir/"
+    p.replace_extension();
+    return p.string() + "_map";
+}
+
+std::string map_summary_text(const barrier_map& m, const std::string& out_dir) {
+    const double to_eV = 1.0 / si::electron_volt;
+    std::string counts;
+    for (std::size_t q = 0; q < pixel_quality_count; ++q)
+        counts += fmt::format("{}{} {}", q ? ", " : "", to_string(static_cast<pixel_quality>(q)), m.quality_counts[q]);
+    std::string s = fmt::format("tipgap map: {} x {} pixels, {} samples -> {}\n", m.nx, m.ny, m.grid.samples, out_dir);
+    if (m.barrier.count > 0) {
+        s += fmt::format("  apparent barrier: {} eV (median ± MAD-based σ), {} eV (mean ± standard deviation), {} pixels with a value\n",
+                         with_uncertainty(m.barrier.median * to_eV, m.barrier.robust_spread * to_eV),
+                         with_uncertainty(m.barrier.mean * to_eV, m.barrier.standard_deviation * to_eV), m.barrier.count);
+    } else {
+        s += "  apparent barrier: no pixel has a value\n";
+    }
+    s += fmt::format("  quality: {}\n", counts);
+    if (m.grid.missing > 0)
+        s += fmt::format("  partial grid: {} of {} pixels missing (quality 'missing', NaN in the maps)\n", m.grid.missing, m.nx * m.ny);
+    return s;
 }
 
 }  // namespace tipgap

@@ -1,5 +1,7 @@
 #include "tipgap/plan/reference_table_columns.hpp"
 
+#include <fmt/format.h>
+
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -20,6 +22,15 @@ const std::vector<column<reference_row>>& reference_columns() {
         {.key = "warnings", .get = [](const r& x) { return x.warnings; }, .shown = in_json},
     };
     return columns;
+}
+
+std::string reference_table_header(const config& c, double current_A, double bias_V) {
+    const std::string tip = c.model.tip.material.empty() ? "custom" : c.model.tip.material;
+    return fmt::format("# {} tip (φ_t = {:.3g} eV) · {} geometry · reference setpoint {:g} A at {:g} V\n"
+                       "# φ̄, κ = √(2mφ̄)/ħ, nm/decade = ln10/(2κ) and λ_dB = h/√(2mφ̄): rectangular barrier of "
+                       "the mean work function\n"
+                       "# gap, φ_ap and model nm/decade: the full model at the reference setpoint\n",
+                       tip, c.model.tip.work_function_J / si::electron_volt, to_string(c.geometry.kind), current_A, bias_V);
 }
 
 }  // namespace tipgap

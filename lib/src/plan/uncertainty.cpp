@@ -188,4 +188,21 @@ uncertainty_summary predict_uncertainty(const config& c, double gap_m, double bi
     return propagate_uncertainty(c, {"current_A", "conductance_G0", "nm_per_decade", "apparent_barrier_eV"}, f, o);
 }
 
+std::vector<uncertainty_summary> predict_uncertainties(const config& c, const std::vector<std::pair<double, double>>& points,
+                                                       const uncertainty_options& options) {
+    std::vector<uncertainty_summary> u(points.size());
+    if (c.sigma.any())
+        for (std::size_t i = 0; i < points.size(); ++i) u[i] = predict_uncertainty(c, points[i].first, points[i].second, options);
+    return u;
+}
+
+std::vector<uncertainty_summary> plan_uncertainties(const config& c, const std::vector<plan_point>& points,
+                                                    const plan_options& plan, const uncertainty_options& options) {
+    std::vector<uncertainty_summary> u(points.size());
+    if (c.sigma.any())
+        for (std::size_t i = 0; i < points.size(); ++i)
+            if (points[i].reachable()) u[i] = plan_uncertainty(c, points[i].setpoint_A, points[i].bias_V, plan, options);
+    return u;
+}
+
 }  // namespace tipgap

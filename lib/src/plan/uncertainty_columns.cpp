@@ -1,6 +1,8 @@
 #include "tipgap/plan/uncertainty_columns.hpp"
 
 #include <cmath>
+#include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <limits>
 
 namespace tipgap {
@@ -63,6 +65,21 @@ record uncertainty_info(const uncertainty_summary& u) {
     r.set("failed", u.failed);
     r.set("coverage", "95 % interval: Monte Carlo 2.5 % and 97.5 % quantiles; linear: value ± 1.96 u");
     return r;
+}
+
+const uncertainty_summary* first_uncertain(const std::vector<uncertainty_summary>& u) {
+    for (const auto& x : u)
+        if (!x.inputs.empty()) return &x;
+    return nullptr;
+}
+
+std::string uncertainty_line(const std::vector<uncertainty_summary>& u, const char* of) {
+    const uncertainty_summary* x = first_uncertain(u);
+    if (!x) return "";
+    if (x->samples > 0)
+        return fmt::format("# ± : Monte Carlo standard uncertainty{}, {} draws, seed {} (inputs: {})\n", of, x->samples,
+                           x->seed, fmt::join(x->inputs, ", "));
+    return fmt::format("# ± : linear propagation (inputs: {})\n", fmt::join(x->inputs, ", "));
 }
 
 }  // namespace tipgap

@@ -1,5 +1,7 @@
 #include "tipgap/synth/synth_columns.hpp"
 
+#include <fmt/format.h>
+
 #include "tipgap/core/constants.hpp"
 
 namespace tipgap {
@@ -51,6 +53,34 @@ const std::vector<column<grid_region_truth>>& grid_region_columns() {
         {"decay_constant_range_per_nm", "range kappa", [](const g& x) { return x.decay_constant_range_per_m; }, to_per_nm, d4},
     };
     return columns;
+}
+
+std::string synth_curve_summary(const synth_curve& curve, const synth_options& o) {
+    std::string s = fmt::format("model over {:.3g}..{:.3g} nm: {}", o.gap_min_m / 1e-9, o.gap_max_m / 1e-9,
+                                format_line(synth_truth_columns(), curve.truth,
+                                            "kappa {decay_constant_range_per_nm} 1/nm, phi_ap {apparent_barrier_range_eV} eV "
+                                            "(mean work function {mean_work_function_eV} eV)\n"));
+    for (const synth_sweep_truth& w : curve.truth.sweeps)
+        s += format_line(synth_sweep_columns(), w,
+                         "  {direction}: {usable_points} usable points, expected fit kappa "
+                         "{decay_constant_expected_per_nm} 1/nm, phi_ap {apparent_barrier_expected_eV} eV\n");
+    return s;
+}
+
+std::string synth_grid_summary(const synth_grid_truth& t) {
+    std::string s;
+    for (const grid_region_truth& r : t.regions)
+        s += format_line(grid_region_columns(), r,
+                         "  {name}: {pixels} pixels, sample work function {sample_work_function_eV} eV, phi_ap "
+                         "{apparent_barrier_expected_eV} eV (kappa {decay_constant_expected_per_nm} 1/nm)\n");
+    return s;
+}
+
+std::string zv_trace_summary(const zv_synth_trace& t) {
+    std::string s = fmt::format("sample work function {:.4f} eV; resonances of the noise-free dz/dV at",
+                                t.sample_work_function_J / si::electron_volt);
+    for (double v : t.peaks_V) s += fmt::format(" {:.3f}", v);
+    return s + " V\n";
 }
 
 }  // namespace tipgap

@@ -76,9 +76,12 @@ std::string truth_path_for(const std::string& csv_path) {
     return (p.parent_path() / (p.stem().string() + ".truth.yaml")).string();
 }
 
-void write_synth_curve(const synth_curve& curve, const config& c, const synth_options& o, const std::string& csv_path,
-                       const std::string& truth_path, const std::string& command_line) {
-    const synth_truth& t = curve.truth;
+namespace {
+
+// The curve file: '#' metadata lines (synthetic, command, bias, temperature, tip, sample, seed,
+// truth file), the header and one row per sample.
+std::string synth_curve_csv(const synth_curve& curve, const config& c, const synth_options& o,
+                            const std::string& truth_path, const std::string& command_line) {
     const bool pair = o.sweeps == synth_sweeps::approach_retract;
     const std::string truth_name = std::filesystem::path(truth_path).filename().string();
     std::string text;
@@ -104,7 +107,15 @@ void write_synth_curve(const synth_curve& curve, const config& c, const synth_op
         }
         text += '\n';
     }
+    return text;
+}
 
+}  // namespace
+
+void write_synth_curve(const synth_curve& curve, const config& c, const synth_options& o, const std::string& csv_path,
+                       const std::string& truth_path, const std::string& command_line) {
+    const synth_truth& t = curve.truth;
+    const std::string text = synth_curve_csv(curve, c, o, truth_path, command_line);
     const double eV = si::electron_volt;
     std::string y;
     y += "# Ground truth of a synthetic curve made by tipgap synth (not a measurement).\n";

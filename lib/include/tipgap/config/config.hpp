@@ -1,5 +1,6 @@
 #pragma once
 // YAML configuration: the junction, the tip geometry, and input uncertainties.
+#include <functional>
 #include <map>
 #include <optional>
 #include <string>
@@ -67,8 +68,12 @@ struct junction_text {
 junction_overlay parse_overlay(const junction_text& t);
 
 // Applies `o` to `c`, records `origin` for every key it sets, and validates the model (errors name
-// the config key: "tip.work_function", "temperature", "tip.material", ...).
-void apply_overlay(config& c, const junction_overlay& o, const std::string& origin);
+// the config key: "tip.work_function", "temperature", "tip.material", ...). flag_of, when given,
+// names the source of each overlay field (its neutral key: "tip.material", "tip.work_function",
+// "sample.material", "sample.work_function", "temperature", "barrier.image_potential", "method"),
+// and the origin reads "ORIGIN (NAME)", e.g. "command line (--tip)".
+void apply_overlay(config& c, const junction_overlay& o, const std::string& origin,
+                   const std::function<std::string(std::string_view)>& flag_of = nullptr);
 
 // The config as YAML that parse_config reads back as the same config, each value followed by a
 // comment naming its origin ("# built-in default", "# my.yaml:3", "# command line").

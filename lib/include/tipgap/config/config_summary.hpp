@@ -10,4 +10,8 @@ namespace tipgap {
 // (kind and its size: area_nm2, apex_radius_nm or contact_distance_nm). Keys in byte order.
 record config_record(const config& c);
 
+// "# <source> · T = ... K · image ... · method ... · geometry ...": the first line of a table
+// (no line break).
+std::string config_line(const config& c);
+
 }  // namespace tipgap

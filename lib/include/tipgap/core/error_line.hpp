@@ -17,4 +17,16 @@ std::string one_line(std::string text);
 // "tipgap: <label>: <what>" on one line.
 std::string error_line(const error& e);
 
+// Exit code of an internal error (a bug): EX_SOFTWARE of sysexits.h.
+inline constexpr int internal_error_exit = 70;
+
+// The one line and the exit code of the exception being handled (call it inside a catch block): a
+// tipgap::error gives error_line and its kind's code (README "Exit codes"); anything else is an
+// internal error, exit internal_error_exit, with "out of memory" for std::bad_alloc.
+struct failure {
+    std::string line;
+    int exit_code = internal_error_exit;
+};
+failure current_failure();
+
 }  // namespace tipgap

@@ -8,6 +8,7 @@
 
 #include "tipgap/io/curve_io.hpp"
 #include "tipgap/fit/fit.hpp"
+#include "tipgap/fit/fitted_sweep.hpp"
 #include "tipgap/fit/model_fit.hpp"
 #include "tipgap/plot/plot.hpp"
 
@@ -40,5 +41,10 @@ std::vector<std::string> fit_plot_paths(const std::string& path, const std::vect
 // The title of a sweep's figure: the file's base name (no directories) and the direction, e.g.
 // "run7.csv (approach)".
 std::string fit_plot_title(const fit_plot_source& source);
+
+// One figure per sweep of `all` (make_fit_figure, titled fit_plot_title) at the paths
+// fit_plot_paths(path, ...) gives, each recorded in its sweep's plot_path. path: FILE.png, .svg or
+// .pdf. Throws tipgap::error (input) when a figure cannot be written.
+void write_fit_plots(std::vector<fitted_sweep>& all, const std::string& path);
 
 }  // namespace tipgap

@@ -7,6 +7,7 @@
 #include "tipgap/config/config.hpp"
 #include "tipgap/fit/resonances.hpp"
 #include "tipgap/io/columns.hpp"
+#include "tipgap/io/report.hpp"
 #include "tipgap/io/trace_io.hpp"
 
 namespace tipgap {
@@ -31,5 +32,9 @@ record resonance_document(const bias_trace& t, const config& c, const resonance_
 
 // The summary as text lines, each starting with `prefix` ("# " above a CSV).
 std::string resonance_summary_text(const resonance_result& r, const std::string& prefix);
+
+// The whole report in format f: the JSON document; the summary as '#' lines above the peaks' CSV;
+// or a '#' line naming the trace (file, kind, points, smoothing), the peak table and the summary.
+std::string resonance_report(output_format f, const bias_trace& t, const config& c, const resonance_result& r);
 
 }  // namespace tipgap

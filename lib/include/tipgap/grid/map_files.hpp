@@ -40,4 +40,13 @@ std::vector<column<map_statistics>> map_statistics_columns(const scaling& scale)
 // phi_ap (eV), quality codes and counts, warnings, then the run-dependent threads and timings.
 record map_summary(const barrier_map& m, const map_options& o, const map_run& run);
 
+// The default output directory of a grid: its path without the extension (and without a trailing
+// '/') plus "_map": "scan.csv" -> "scan_map", "pixels/" -> "pixels_map".
+std::string default_map_directory(const std::string& grid);
+
+// The summary lines under "tipgap map: <nx> x <ny> pixels, <samples> samples -> <out_dir>": the
+// apparent barrier (median ± MAD-based σ and mean ± standard deviation, eV), the quality counts
+// and, for a partial grid, how many pixels are missing. One line each, '\n'-terminated.
+std::string map_summary_text(const barrier_map& m, const std::string& out_dir);
+
 }  // namespace tipgap

@@ -6,6 +6,7 @@
 #include <functional>
 #include <limits>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "tipgap/config/config.hpp"
@@ -78,5 +79,14 @@ uncertainty_summary plan_uncertainty(const config& c, double current_A, double b
 // gap_m: s (m), > 0; bias_V: sample bias (V).
 uncertainty_summary predict_uncertainty(const config& c, double gap_m, double bias_V,
                                         const uncertainty_options& options);
+
+// Many points at once: one summary per point, each empty (no inputs) when c has no input
+// uncertainties (c.sigma.any() false) and, for plan, at an unreachable setpoint.
+// points: (gap_m, bias_V) pairs as for predict_uncertainty.
+std::vector<uncertainty_summary> predict_uncertainties(const config& c, const std::vector<std::pair<double, double>>& points,
+                                                       const uncertainty_options& options);
+// points: plan_setpoints' result; plan: the options it was made with.
+std::vector<uncertainty_summary> plan_uncertainties(const config& c, const std::vector<plan_point>& points,
+                                                    const plan_options& plan, const uncertainty_options& options);
 
 }  // namespace tipgap

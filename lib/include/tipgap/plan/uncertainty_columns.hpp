@@ -24,4 +24,12 @@ std::vector<column<uncertainty_summary>> uncertainty_columns(const std::vector<s
 // The "uncertainty" block of an output: inputs, Monte Carlo samples, seed, redrawn, failed, coverage.
 record uncertainty_info(const uncertainty_summary& u);
 
+// The first summary with uncertain inputs, or nullptr.
+const uncertainty_summary* first_uncertain(const std::vector<uncertainty_summary>& u);
+
+// "# ± : ..." saying what the ± of a table is (Monte Carlo with draws and seed, or linear
+// propagation, and the inputs), '\n'-terminated; "" without uncertain inputs. of: what it is the
+// uncertainty of (" of I"), or "".
+std::string uncertainty_line(const std::vector<uncertainty_summary>& u, const char* of);
+
 }  // namespace tipgap
