@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 #include <yaml-cpp/yaml.h>
 
+#include "io/detail/read_capped.hpp"
 #include "synth/detail/synth_internal.hpp"
 #include "tipgap/core/text.hpp"
 #include "tipgap/io/atomic_file.hpp"
@@ -170,15 +171,21 @@ void write_synth_curve(const synth_curve& curve, const config& c, const synth_op
     write_file_atomically(csv_path, text);
 }
 
-truth_record read_truth(const std::string& path) {
-    YAML::Node root;
+namespace detail {
+
+YAML::Node load_truth_yaml(const std::string& path) {
+    const std::string text = read_capped(path, config_cap_bytes, false, "a truth file");
     try {
-        root = YAML::LoadFile(path);
-    } catch (const YAML::BadFile&) {
-        throw_input(location{path, 0, 0, ""}, "cannot open the truth file");
+        return YAML::Load(text);
     } catch (const YAML::Exception& e) {
         throw_input(location{path, e.mark.line + 1, e.mark.column + 1, ""}, e.msg);
     }
+}
+
+}  // namespace detail
+
+truth_record read_truth(const std::string& path) {
+    const YAML::Node root = detail::load_truth_yaml(path);
     auto get = [&](const YAML::Node& parent, const char* parent_key, const char* key) -> double {
         const YAML::Node n = parent[key];
         const std::string full = parent_key[0] ? fmt::format("{}.{}", parent_key, key) : std::string(key);

@@ -5,6 +5,7 @@
 
 #include "core/detail/parallel.hpp"
 #include "synth/detail/normal_source.hpp"
+#include "synth/detail/synth_internal.hpp"
 #include "tipgap/core/text.hpp"
 #include "tipgap/core/constants.hpp"
 #include "tipgap/core/error.hpp"
@@ -123,14 +124,7 @@ void write_zv_trace(const zv_synth_trace& t, const config& c, const zv_synth_opt
 }
 
 zv_truth_record read_zv_truth(const std::string& path) {
-    YAML::Node root;
-    try {
-        root = YAML::LoadFile(path);
-    } catch (const YAML::BadFile&) {
-        throw_input(location{path, 0, 0, ""}, "cannot open the truth file");
-    } catch (const YAML::Exception& e) {
-        throw_input(location{path, e.mark.line + 1, e.mark.column + 1, ""}, e.msg);
-    }
+    const YAML::Node root = detail::load_truth_yaml(path);
     zv_truth_record t;
     try {
         if (!root["sample_work_function_eV"] || !root["peaks_V"]) throw YAML::Exception(YAML::Mark(), "missing");

@@ -3,10 +3,15 @@
 #include <span>
 #include <string>
 #include <vector>
+#include <yaml-cpp/yaml.h>
 
 #include "tipgap/synth/synth.hpp"
 
 namespace tipgap::detail {
+
+// A truth file (curve or z(V)) as YAML, read with the configuration size cap (1 MiB); an unreadable
+// file or bad YAML throws tipgap::error (input) at its file, line and column.
+YAML::Node load_truth_yaml(const std::string& path);
 
 // The config with the tip and sample work functions set (J).
 config with_work_functions(const config& c, double tip_J, double sample_J);
