@@ -101,7 +101,9 @@ for sig in INT TERM HUP; do
   [ -z "$(ls -A "sig-$sig")" ] || fail "3: SIG$sig left: $(ls -A "sig-$sig")"
 done
 # map: a directory temporary is removed too
-"$TIPGAP" synth --grid 24x24 --points-per-curve 64 --out grid.csv > /dev/null 2>&1 || fail "3: synth --grid failed"
+# (large enough that the map runs for a few hundred ms after its temporary appears, so that the
+# signal lands inside the run even on a loaded machine)
+"$TIPGAP" synth --grid 128x128 --points-per-curve 128 --out grid.csv > /dev/null 2>&1 || fail "3: synth --grid failed"
 mkdir mapdir
 start_default_signals "$TIPGAP" map grid.csv --output-dir mapdir/out --threads 1 > /dev/null 2>&1 &
 pid=$!

@@ -9,7 +9,10 @@
 #include <random>
 #include <string>
 
+#include <filesystem>
+
 #include "tipgap/fit/fit.hpp"
+#include "tipgap/io/curve_io.hpp"
 
 using namespace tipgap;
 
@@ -57,4 +60,40 @@ TEST(goodness, curvature_test_warns_on_curved_curves_only) {
 TEST(goodness, decay_constant_outside_two_to_twenty_per_nm_warns) {
     EXPECT_TRUE(warns(fit_sweep(curve(25.0, 0.0, 7), no_bias, fit_options{}), "outside the usual 2-20 /nm"));
     EXPECT_FALSE(warns(fit_sweep(curve(10.9, 0.0, 7), no_bias, fit_options{}), "outside the usual 2-20 /nm"));
+}
+
+// A curved ln|I| and an offset cannot be told apart: the joint fit lets the offset absorb part
+// of the curvature (on these curves by many of its own standard errors). When the curvature test
+// fires, the offset is held: at 0 when the curve has no flat far tail, at the tail's median when it
+// has one, with the median's large-sample error √(π/2) σ/√n (Kendall & Stuart).
+TEST(goodness, a_curved_curve_holds_its_offset_at_zero_or_at_the_far_tail) {
+    // demo_scans/01_w_au111_clean.csv (tipgap synth, WKB with the image potential, no offset, 0.1 pA
+    // noise): its far tail still decays (1.3 pA at the far end), so it has no flat floor.
+    const measured_curve clean =
+        read_curve_csv((std::filesystem::path(TIPGAP_SOURCE_DIR) / "demo_scans" / "01_w_au111_clean.csv").string());
+    const fit_result short_curve = fit_curve(clean, fit_options{}).at(0);
+    EXPECT_EQ(short_curve.offset_A, 0.0);
+    EXPECT_EQ(short_curve.offset_stderr_A, 0.0);
+    EXPECT_TRUE(warns(short_curve, "so the offset is held at 0")) << short_curve.warnings.front();
+    // 201 points over 1 nm, local κ = 10.9 - 3 z/nm: ~2e-16 A of signal at the far end, so the far
+    // fifth (40 points) is the offset plus noise; +3 pA offset, 1 pA white noise.
+    int covered = 0;
+    double mean_stderr = 0.0;
+    for (std::uint64_t seed = 1; seed <= 20; ++seed) {
+        std::mt19937_64 rng(seed);
+        std::normal_distribution<double> normal(0.0, 1.0);
+        curve_sweep s;
+        for (int k = 0; k <= 200; ++k) {
+            const double zn = 1.0 * k / 200.0;
+            s.z_m.push_back(zn * nm);
+            s.current_A.push_back(1e3 * pA * std::exp(-2.0 * 10.9 * zn + 3.0 * zn * zn) + 3.0 * pA + 1.0 * pA * normal(rng));
+        }
+        const fit_result r = fit_sweep(s, no_bias, fit_options{});
+        ASSERT_TRUE(warns(r, "held at the far tail's median")) << seed;
+        mean_stderr += r.offset_stderr_A / 20.0;
+        covered += std::abs(r.offset_A - 3.0 * pA) <= 1.96 * r.offset_stderr_A;
+    }
+    EXPECT_GE(covered, 16);  // 95 % of 20: P(X <= 15) = 1.6e-2 for an honest interval
+    // √(π/2) · 1 pA / √40 = 0.198 pA on average (σ_I is estimated per curve from the tail's MAD).
+    EXPECT_NEAR(mean_stderr, 0.198 * pA, 0.05 * pA);
 }

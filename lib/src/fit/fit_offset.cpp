@@ -27,8 +27,11 @@ struct offset_functor {
     const Eigen::VectorXd& y;
     const Eigen::VectorXd& sw;
     bool quadratic = false;
+    bool fixed_offset = false;  // c = c_fixed, parameters (a, b) only
+    double c_fixed = 0.0;
 
-    int inputs() const { return quadratic ? 4 : 3; }
+    int inputs() const { return fixed_offset ? 2 : quadratic ? 4 : 3; }
+    double offset(const Eigen::VectorXd& p) const { return fixed_offset ? c_fixed : p(2); }
     int values() const { return static_cast<int>(x.size()); }
     Eigen::ArrayXd shape(const Eigen::VectorXd& p) const {
         Eigen::ArrayXd e = -p(1) * x.array();
@@ -36,14 +39,14 @@ struct offset_functor {
         return e.exp();
     }
     int operator()(const Eigen::VectorXd& p, Eigen::VectorXd& f) const {
-        f = ((p(0) * shape(p) + p(2) - y.array()) * sw.array()).matrix();
+        f = ((p(0) * shape(p) + offset(p) - y.array()) * sw.array()).matrix();
         return 0;
     }
     int df(const Eigen::VectorXd& p, Eigen::MatrixXd& j) const {
         const Eigen::ArrayXd e = shape(p);
         j.col(0) = (e * sw.array()).matrix();
         j.col(1) = (-p(0) * x.array() * e * sw.array()).matrix();
-        j.col(2) = sw;
+        if (!fixed_offset) j.col(2) = sw;
         if (quadratic) j.col(3) = (-p(0) * x.array().square() * e * sw.array()).matrix();
         return 0;
     }
@@ -83,12 +86,12 @@ offset_fit fit_offset_model(const offset_problem& pb) {
         y(i) = pb.signed_current_A[k] / current_scale;
         sw(i) = weighted ? std::sqrt(pb.weights[k]) * current_scale : 1.0;
     }
-    offset_functor f{x, y, sw, pb.quadratic};
+    offset_functor f{x, y, sw, pb.quadratic && !pb.fixed_offset, pb.fixed_offset, pb.c0_A / current_scale};
     const int np = f.inputs();
     Eigen::VectorXd p(np);
     p(0) = pb.a0_A / current_scale;
     p(1) = pb.b0_per_m * length_scale;
-    p(2) = pb.c0_A / current_scale;
+    if (!pb.fixed_offset) p(2) = pb.c0_A / current_scale;
     if (pb.quadratic) p(3) = 0.0;
     Eigen::LevenbergMarquardt<offset_functor> lm(f);
     lm.parameters.ftol = lm_tolerance;
@@ -119,16 +122,17 @@ offset_fit fit_offset_model(const offset_problem& pb) {
     out.amplitude_stderr_A = std::sqrt(cov(0, 0)) * current_scale;
     out.rate_per_m = p(1) / length_scale;
     out.rate_stderr_per_m = std::sqrt(cov(1, 1)) / length_scale;
-    out.offset_A = p(2) * current_scale;
-    out.offset_stderr_A = std::sqrt(cov(2, 2)) * current_scale;
-    if (pb.quadratic) {
+    out.offset_A = f.offset(p) * current_scale;
+    out.offset_stderr_A = pb.fixed_offset ? 0.0 : std::sqrt(cov(2, 2)) * current_scale;
+    if (f.quadratic) {
         out.curvature_per_m2 = p(3) / (length_scale * length_scale);
         out.curvature_stderr_per_m2 = std::sqrt(cov(3, 3)) / (length_scale * length_scale);
     }
     const double unit[3] = {current_scale, 1.0 / length_scale, current_scale};
     out.covariance.resize(9);
-    for (int a = 0; a < 3; ++a)
-        for (int b = 0; b < 3; ++b) out.covariance[static_cast<std::size_t>(3 * a + b)] = cov(a, b) * unit[a] * unit[b];
+    for (int a = 0; a < 3; ++a)  // a held offset has no variance: its row and column are 0
+        for (int b = 0; b < 3; ++b)
+            out.covariance[static_cast<std::size_t>(3 * a + b)] = a < np && b < np ? cov(a, b) * unit[a] * unit[b] : 0.0;
     // Leverages h_i = Σ_k U_ik² over the non-zero singular values (the hat matrix's diagonal).
     out.leverage.assign(static_cast<std::size_t>(n), 0.0);
     for (Eigen::Index i = 0; i < n; ++i)

@@ -71,6 +71,8 @@ struct offset_problem {
     double a0_A = 0.0, b0_per_m = 0.0, c0_A = 0.0;
     int max_evaluations = 2000;
     bool quadratic = false;
+    // c held at c0_A (only a and b fitted; not with quadratic): the offset is known, not estimated.
+    bool fixed_offset = false;
 };
 struct offset_fit {
     double amplitude_A = 0.0, amplitude_stderr_A = 0.0;
