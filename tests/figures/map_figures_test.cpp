@@ -77,5 +77,10 @@ TEST(map_figures, stderr_map_in_meV_and_quality_map_in_code_bands) {
     EXPECT_EQ(q.z, (std::vector<double>{0, 0, 2, 3, 1, 4}));
     EXPECT_DOUBLE_EQ(*q.z_min, -0.5);
     EXPECT_DOUBLE_EQ(*q.z_max, 5.5);
-    EXPECT_EQ(q.title, "quality: 0 ok, 1 too_few_points, 2 saturated, 3 contact, 4 poor_fit, 5 missing");
+    // Five codes present: too long for the panel, so the title points to the code table.
+    EXPECT_EQ(q.title, "quality code per pixel (0 ok; the README lists the codes)");
+    barrier_map few = m;
+    few.quality = {pixel_quality::ok, pixel_quality::ok, pixel_quality::missing, pixel_quality::ok, pixel_quality::ok,
+                   pixel_quality::ok};
+    EXPECT_EQ(std::get<plot::colour_map_panel>(quality_map_figure(few).panels.at(0)).title, "quality: 0 ok, 5 missing");
 }

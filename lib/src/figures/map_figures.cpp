@@ -1,6 +1,7 @@
 #include "tipgap/figures/map_figures.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <fmt/format.h>
 
@@ -84,10 +85,15 @@ plot::figure quality_map_figure(const barrier_map& m) {
     std::vector<double> codes;
     for (pixel_quality q : m.quality) codes.push_back(static_cast<double>(q));
     plot::colour_map_panel map = pixel_map(m, codes, 1.0);
+    // The codes present, by name, when they fit the panel's width (~56 characters); else a pointer
+    // to the code table.
+    std::array<bool, pixel_quality_count> present{};
+    for (pixel_quality q : m.quality) present[static_cast<std::size_t>(q)] = true;
     std::string key;
     for (std::size_t q = 0; q < pixel_quality_count; ++q)
-        key += fmt::format("{}{} {}", q ? ", " : "", q, to_string(static_cast<pixel_quality>(q)));
-    map.title = "quality: " + key;
+        if (present[q])
+            key += fmt::format("{}{} {}", key.empty() ? "" : ", ", q, to_string(static_cast<pixel_quality>(q)));
+    map.title = key.size() <= 47 ? "quality: " + key : "quality code per pixel (0 ok; the README lists the codes)";
     map.colour_bar_label = "quality code";
     // Half a step beyond the codes: each code gets its own band of the (lightness-ordered) palette.
     map.z_min = -0.5;
