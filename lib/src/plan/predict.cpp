@@ -47,7 +47,10 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
         p.q = evaluate_point(c.model, s, V);
         // The paraboloid rule reuses J and dJ/ds at the apex from evaluate_point.
         const double R = c.geometry.apex_radius_m;
-        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : paraboloid_current(c.model, R, p.q);
+        // The paraboloid rule also yields dI/dV on the same nodes (no extra currents).
+        paraboloid_current_slopes tip;
+        if (!fixed_area) tip = paraboloid_current_with_bias_slope(c.model, R, p.q);
+        p.current_A = fixed_area ? area * p.q.current_density_A_per_m2 : tip.current_A;
         if (V != 0.0) {
             p.conductance_S = p.current_A / V;
         } else if (fixed_area) {
@@ -58,12 +61,8 @@ std::vector<prediction> predict_points(const config& c, const std::vector<std::p
         p.conductance_G0 = p.conductance_S / si::conductance_quantum;
         const double kappa_per_nm = p.q.decay_constant_per_m * 1e-9;
         p.nm_per_decade = kappa_per_nm > 0 ? std::log(10.0) / (2.0 * kappa_per_nm) : 0.0;
-        if (!fixed_area && V != 0.0 && p.current_A != 0.0) {
-            // The paraboloid sums J over local gaps, so d ln|I|/dV differs from the planar value.
-            const double dV = bias_step(c.model, V);
-            p.q.dlnI_dV_per_V = (total_current(c.model, c.geometry, s, V + dV) -
-                                 total_current(c.model, c.geometry, s, V - dV)) / (2.0 * dV * p.current_A);
-        }
+        // The paraboloid sums J over local gaps, so d ln|I|/dV differs from the planar value.
+        if (!fixed_area && V != 0.0 && p.current_A != 0.0) p.q.dlnI_dV_per_V = tip.d_dV_A_per_V / p.current_A;
         p.warnings = operating_warnings(s, V, p.conductance_G0, p.q.kind);
         // Far gaps: the current is below the smallest double, and the quantities derived from
         // ln|I| (apparent barrier) have no value; say so instead of a bare null.

@@ -50,10 +50,12 @@ double paraboloid_integral(const std::function<double(double)>& j_of_gap, double
 struct gap_sample {
     double value = 0;  // j at the gap (e.g. A/m^2)
     double d_ds = 0;   // dj/ds at that gap (per m)
+    double carried = 0;  // a second density integrated on the same nodes (e.g. dj/dV); 0 when unused
 };
 
 struct paraboloid_laguerre_result {
     double value = std::numeric_limits<double>::quiet_NaN();           // 2 pi R ∫_0^inf j(s + u) du
+    double carried_value = std::numeric_limits<double>::quiet_NaN();   // 2 pi R ∫_0^inf carried(s + u) du
     double error_estimate = std::numeric_limits<double>::quiet_NaN();  // relative, of the last rule tried
     int nodes = 0;        // points of the last rule tried (4, 8 or 16)
     int evaluations = 0;  // samples of j taken, the apex not counted
@@ -67,7 +69,9 @@ struct paraboloid_laguerre_result {
 // Gauss-Laguerre rule integrates best (Abramowitz & Stegun 1964, eq. 25.4.45). Integrating by parts,
 // the same integral is (2 pi R / r) [G(0) + ∫_0^inf e^(-t) G'(t) dt] with G' = e^t (j + j'/r): the
 // same nodes give a second estimate from the gap derivatives, and the difference of the two is the
-// error estimate (derived here). Rules of 4, 8 and 16 points are tried in turn.
+// error estimate (derived here). Rules of 4, 8 and 16 points are tried in turn. A carried density
+// (such as dj/dV, which falls off with the gap like j) is summed on the same nodes; the rule is
+// accepted on j's error estimate alone.
 // j: the sample at a gap (m); apex: j and dj/ds at gap_m; apex_radius_m: R (m), > 0; gap_m: s (m),
 // > 0; rel_tol: requested relative accuracy, [1e-12, 1e-2].
 paraboloid_laguerre_result paraboloid_integral_laguerre(const std::function<gap_sample(double)>& j,
@@ -79,6 +83,17 @@ paraboloid_laguerre_result paraboloid_integral_laguerre(const std::function<gap_
 // paraboloid_integral otherwise (a barrier that collapses at the apex puts a kink into j, and
 // methods other than wkb have no analytic gap derivative). apex_radius_m: R (m), > 0.
 double paraboloid_current(const model_options& model, double apex_radius_m, const point_quantities& apex);
+
+// The paraboloid current and its bias derivative from one pass: dI/dV = 2 pi R ∫ dJ/dV(s + u) du on
+// the Gauss-Laguerre nodes that give I (method wkb: dJ/dV from the same energy integral as J).
+// Where the rule does not apply, I as paraboloid_current and dI/dV by a central difference of I in
+// V (step bias_step). apex: evaluate_point at a non-zero bias; apex_radius_m: R (m), > 0.
+struct paraboloid_current_slopes {
+    double current_A = 0;   // I (A), equal to paraboloid_current bit for bit
+    double d_dV_A_per_V = 0;  // dI/dV at fixed gap (A/V)
+};
+paraboloid_current_slopes paraboloid_current_with_bias_slope(const model_options& model, double apex_radius_m,
+                                                             const point_quantities& apex);
 
 // Zero-bias conductance dI/dV at V = 0 (S) of the paraboloid, 2 pi R ∫ G(s + u) du with G the
 // zero-bias conductance density; apex: evaluate_point at V = 0.
