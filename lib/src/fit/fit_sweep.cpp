@@ -1,6 +1,8 @@
 // Fitting one sweep: point selection (noise floor, saturation, contact), the linear or offset
 // model, uncertainties with the piezo calibration folded in, and the local φ_ap(z) profile.
+
 #include <algorithm>
+#include <array>
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
 #include <fmt/format.h>
@@ -64,8 +66,19 @@ line_fit svd_line(const detail::sorted_sweep& s, std::span<const std::size_t> id
 }  // namespace
 
 double detail::t_quantile(double dof, double confidence_level) {
+    // A thread's last (dof, level) pairs: every curve of a file or of a summary asks for the same
+    // few, and Boost's inverse incomplete beta costs as much as a whole straight-line fit.
+    struct entry {
+        double dof, level, t;
+    };
+    thread_local std::array<entry, 8> cache{};
+    thread_local std::size_t next = 0;
+    for (const entry& e : cache)
+        if (e.dof == dof && e.level == confidence_level && e.dof > 0.0) return e.t;
     boost::math::students_t dist(dof);
-    return boost::math::quantile(dist, 0.5 + 0.5 * confidence_level);
+    const double t = boost::math::quantile(dist, 0.5 + 0.5 * confidence_level);
+    cache[next++ % cache.size()] = {dof, confidence_level, t};
+    return t;
 }
 
 void detail::fill_decay(fit_result& r, double kappa, double kappa_stat_se, double dof, double t) {
@@ -100,7 +113,8 @@ std::vector<profile_point> local_profile(const fit_workspace& ws, const fit_opti
     std::vector<profile_point> out;
     const std::size_t n = used.size();
     if (n == 0) return out;
-    std::vector<long double> x(n), y(n), zsum(n + 1, 0.0L);  // zsum: prefix sums for the window centres
+    std::vector<double> x(n), y(n);
+    std::vector<long double> zsum(n + 1, 0.0L);  // prefix sums for the window centres
     for (std::size_t k = 0; k < n; ++k) {
         x[k] = z[used[k]];
         y[k] = ws.sweep.ln_abs_current[used[k]];  // in double, as fit_line receives it
