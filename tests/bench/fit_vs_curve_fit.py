@@ -1,7 +1,10 @@
 #!/usr/bin/python3
 """Bench (not run by ctest): fitting 200 current-distance curves of 200 points each, tipgap's fit
-(through the Python module, so both sides get the same NumPy arrays in one process) against
-scipy.optimize.curve_fit on the same arrays, in one run (issue 14: tipgap >= 3x faster).
+against scipy.optimize.curve_fit on the same arrays, in one run (issue 14: tipgap >= 3x faster).
+tipgap is timed twice: the library's fit_curve (build/tests/bench/fit_curves_bench, on the same
+curves written to CSV files with 17 digits and read before timing), and through the Python module
+(tipgap.fit on the NumPy arrays, which adds building the result dict: about 45 keys and the
+φ_ap(z) profile as arrays).
 
 The curves are synthetic (this script's own generator, not tipgap's): I = I0 exp(-2 kappa z) + white
 noise, kappa = 10.9 /nm, I0 = 1 nA at z = 0, z from 0 to 0.5 nm, 2 pA noise, seeded. Pairs timed:
@@ -17,10 +20,14 @@ include what its result carries and curve_fit's do not (point selection, noise e
 profile, goodness of fit, intervals); the ratio is therefore conservative. Each figure is the best
 of --repeat passes over all curves; per-curve CPU time (process time) and wall time are printed.
 
-usage: PYTHONPATH=<build>/python /usr/bin/python3 tests/bench/fit_vs_curve_fit.py [--repeat N]
+usage: PYTHONPATH=<build>/python /usr/bin/python3 tests/bench/fit_vs_curve_fit.py <build>/tests/bench/fit_curves_bench
+       [--repeat N]
 """
 import argparse
+import json
 import os
+import subprocess
+import tempfile
 import time
 import warnings
 
@@ -51,8 +58,32 @@ def best_of(repeat, fn):
     return best_cpu / CURVES, best_wall / CURVES
 
 
+def library_rows(bench, z, curves):
+    """fit_curve per curve from the C++ bench, on the same curves written as CSV (17 digits)."""
+    with tempfile.TemporaryDirectory() as tmp:
+        for k, i in enumerate(curves):
+            numpy.savetxt(os.path.join(tmp, f"curve_{k:03d}.csv"), numpy.column_stack((z, i)), fmt="%.17g",
+                          delimiter=",", header="bias: 0.1 V\nz [nm],current [A]", comments="")
+            with open(os.path.join(tmp, f"curve_{k:03d}.csv"), "r+") as fh:  # the metadata line is a comment
+                text = fh.read()
+                fh.seek(0)
+                fh.write("# " + text)
+        out = subprocess.run([bench, f"--curves={tmp}", "--benchmark_format=json", "--benchmark_repetitions=3",
+                              "--benchmark_report_aggregates_only=true"], check=True, capture_output=True, text=True)
+    rows = []
+    for b in json.loads(out.stdout)["benchmarks"]:
+        if b.get("aggregate_name") != "min" and b.get("aggregate_name") != "mean":
+            continue
+        if b.get("aggregate_name") == "mean":
+            label = "library fit_curve, " + ("linear" if "linear" in b["run_name"] else "default offset")
+            rows.append((label, (b["cpu_time"] * {"ns": 1e-9, "us": 1e-6, "ms": 1e-3}[b["time_unit"]] / CURVES,
+                                 b["real_time"] * {"ns": 1e-9, "us": 1e-6, "ms": 1e-3}[b["time_unit"]] / CURVES)))
+    return rows
+
+
 def main():
     ap = argparse.ArgumentParser()
+    ap.add_argument("bench", help="path of the fit_curves_bench program")
     ap.add_argument("--repeat", type=int, default=5)
     args = ap.parse_args()
     z, curves = make_curves()
@@ -92,11 +123,15 @@ def main():
             ("curve_fit, I0 exp(-2 kappa z)", best_of(args.repeat, scipy_expo(False))),
             ("curve_fit, I0 exp(-2 kappa z) + c", best_of(args.repeat, scipy_expo(True))),
         ]
+    rows = library_rows(args.bench, z, curves) + rows
     print(f"{'per curve':36} {'CPU us':>9} {'wall us':>9}")
     for label, (cpu, wall) in rows:
         print(f"{label:36} {cpu * 1e6:9.1f} {wall * 1e6:9.1f}")
     t = dict(rows)
-    for a, b in (("tipgap fit --model linear", "curve_fit, line through ln|I|"),
+    for a, b in (("library fit_curve, linear", "curve_fit, line through ln|I|"),
+                 ("library fit_curve, linear", "curve_fit, I0 exp(-2 kappa z)"),
+                 ("library fit_curve, default offset", "curve_fit, I0 exp(-2 kappa z) + c"),
+                 ("tipgap fit --model linear", "curve_fit, line through ln|I|"),
                  ("tipgap fit --model linear", "curve_fit, I0 exp(-2 kappa z)"),
                  ("tipgap fit (default offset model)", "curve_fit, I0 exp(-2 kappa z) + c")):
         print(f"{a} against {b}: {t[b][0] / t[a][0]:.2f}x faster (CPU), {t[b][1] / t[a][1]:.2f}x (wall)")

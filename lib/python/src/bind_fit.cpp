@@ -34,7 +34,9 @@ py::list fit(const double_array& z_nm, const double_array& current_A, double bia
         naming_keywords("fit", [&] {
             const measured_curve curve = curve_from_arrays(name, std::move(z), std::move(current), bias_V);
             const std::vector<fitted_sweep> fits = fit_and_compare(curve, o, model_config ? &*model_config : nullptr);
-            const auto columns = fitted_sweep_columns(model_config.has_value());
+            // The declarations are the same for every call: build them once.
+            static const auto plain = fitted_sweep_columns(false), with_model = fitted_sweep_columns(true);
+            const auto& columns = model_config ? with_model : plain;
             for (const fitted_sweep& f : fits) rows.push_back(to_record(columns, f));
         });
     }

@@ -2,11 +2,11 @@
 // model, uncertainties with the piezo calibration folded in, and the local φ_ap(z) profile.
 
 #include <algorithm>
-#include <array>
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
 #include <fmt/format.h>
 #include <limits>
+#include <vector>
 
 #include "fit/detail/point_selection.hpp"
 #include "fit/detail/sliding_line.hpp"
@@ -66,18 +66,28 @@ line_fit svd_line(const detail::sorted_sweep& s, std::span<const std::size_t> id
 }  // namespace
 
 double detail::t_quantile(double dof, double confidence_level) {
-    // A thread's last (dof, level) pairs: every curve of a file or of a summary asks for the same
-    // few, and Boost's inverse incomplete beta costs as much as a whole straight-line fit.
-    struct entry {
-        double dof, level, t;
-    };
-    thread_local std::array<entry, 8> cache{};
-    thread_local std::size_t next = 0;
-    for (const entry& e : cache)
-        if (e.dof == dof && e.level == confidence_level && e.dof > 0.0) return e.t;
+    // Per thread, the quantiles of whole degrees of freedom at the last confidence level asked:
+    // the curves of a file or a summary ask for a few levels and nearby dof, and Boost's inverse
+    // incomplete beta costs as much as a whole straight-line fit.
+    thread_local double level = std::numeric_limits<double>::quiet_NaN();
+    thread_local std::vector<double> by_dof;
+    constexpr double max_cached_dof = 65536.0;
+    const bool whole = dof >= 1.0 && dof <= max_cached_dof && dof == std::floor(dof);
+    if (whole && confidence_level == level) {
+        const auto k = static_cast<std::size_t>(dof);
+        if (k < by_dof.size() && !std::isnan(by_dof[k])) return by_dof[k];
+    }
     boost::math::students_t dist(dof);
     const double t = boost::math::quantile(dist, 0.5 + 0.5 * confidence_level);
-    cache[next++ % cache.size()] = {dof, confidence_level, t};
+    if (whole) {
+        if (confidence_level != level) {
+            by_dof.clear();
+            level = confidence_level;
+        }
+        const auto k = static_cast<std::size_t>(dof);
+        if (k >= by_dof.size()) by_dof.resize(k + 1, std::numeric_limits<double>::quiet_NaN());
+        by_dof[k] = t;
+    }
     return t;
 }
 
@@ -112,6 +122,7 @@ std::vector<profile_point> local_profile(const fit_workspace& ws, const fit_opti
     const std::span<const std::size_t> used(ws.used);
     std::vector<profile_point> out;
     const std::size_t n = used.size();
+    out.reserve(n);
     if (n == 0) return out;
     std::vector<double> x(n), y(n);
     std::vector<long double> zsum(n + 1, 0.0L);  // prefix sums for the window centres

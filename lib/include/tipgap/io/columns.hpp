@@ -223,6 +223,7 @@ std::string format_csv(const std::vector<column<T>>& columns, const Rows& rows) 
 template <class T>
 record to_record(const std::vector<column<T>>& columns, const T& row) {
     record r;
+    r.fields.reserve(columns.size());
     for (const column<T>& c : columns) {
         if (!(c.shown & in_json)) continue;
         cell v = scaled(c.get(row), c.scale);
