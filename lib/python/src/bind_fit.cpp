@@ -1,5 +1,6 @@
 // _fit and _read_curve: fits of a curve held in arrays, each sweep a dict with the keys of one
 // `tipgap fit` JSON curve (the same declared columns), and the project's curve reader.
+#include <array>
 #include <fmt/format.h>
 #include <memory>
 #include <optional>
@@ -28,20 +29,34 @@ py::list fit(const double_array& z_nm, const double_array& current_A, double bia
     const fit_options o = fit_options_from(options, "fit");
     // nm -> m as the curve reader converts a "z [nm]" column (value * 1e-9).
     std::vector<double> z = scaled_vector(z_nm, 1e-9), current = to_vector(current_A);
+    // The profile (a list of rows in the JSON) is converted to columns straight from its
+    // declaration below; the row's own "profile" cell only holds its place among the keys.
+    static const auto declarations = [] {
+        std::array<std::vector<column<fitted_sweep>>, 2> out{fitted_sweep_columns(false), fitted_sweep_columns(true)};
+        for (auto& columns : out)
+            for (auto& c : columns)
+                if (c.key == "profile") c.get = [](const fitted_sweep&) { return cell(); };
+        return out;
+    }();
+    std::optional<measured_curve> curve;
+    std::vector<fitted_sweep> fits;
     std::vector<record> rows;
     {
         py::gil_scoped_release unlocked;
         naming_keywords("fit", [&] {
-            const measured_curve curve = curve_from_arrays(name, std::move(z), std::move(current), bias_V);
-            const std::vector<fitted_sweep> fits = fit_and_compare(curve, o, model_config ? &*model_config : nullptr);
-            // The declarations are the same for every call: build them once.
-            static const auto plain = fitted_sweep_columns(false), with_model = fitted_sweep_columns(true);
-            const auto& columns = model_config ? with_model : plain;
-            for (const fitted_sweep& f : fits) rows.push_back(to_record(columns, f));
+            curve.emplace(curve_from_arrays(name, std::move(z), std::move(current), bias_V));
+            fits = fit_and_compare(*curve, o, model_config ? &*model_config : nullptr);
+            for (const fitted_sweep& f : fits) rows.push_back(to_record(declarations[model_config ? 1 : 0], f));
         });
     }
     py::list out;
-    for (const record& r : rows) out.append(to_dict(r, true));
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        py::dict d = to_dict(rows[i], true);
+        const std::vector<profile_point>& profile = fits[i].result.profile;
+        d["profile"] = profile.empty() ? to_python(to_records(profile_columns(), profile), true)
+                                       : py::object(declared_columns(profile_columns(), profile));
+        out.append(d);
+    }
     return out;
 }
 

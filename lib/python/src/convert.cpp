@@ -6,6 +6,8 @@
 
 namespace tipgap::python {
 
+py::object column_of_cells(const std::vector<const cell*>& cells);
+
 namespace {
 
 template <class... F>
@@ -67,7 +69,38 @@ column_kind kind_of(const std::vector<const cell*>& cells) {
     return column_kind::objects;
 }
 
-py::object column(const std::vector<const cell*>& cells) {
+
+// The rows' keys in order of first appearance, and each row's cell of each key (nullptr: absent).
+py::dict columns_of(const std::vector<const record*>& rows) {
+    std::vector<std::string> keys;
+    for (const record* r : rows)
+        for (std::size_t j = 0; j < r->fields.size(); ++j) {
+            const auto& [k, v] = r->fields[j];
+            if (v.is_absent() || (j < keys.size() && keys[j] == k)) continue;
+            if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
+        }
+    // Rows written from one column declaration hold the same keys in the same place: look there
+    // first, and search the row only when it differs (O(keys x rows) instead of O(keys² x rows)).
+    auto cell_of = [](const record& r, std::size_t hint, const std::string& k) -> const cell* {
+        if (hint < r.fields.size() && r.fields[hint].first == k)
+            return r.fields[hint].second.is_absent() ? nullptr : &r.fields[hint].second;
+        const cell* found = nullptr;
+        for (const auto& [key, v] : r.fields)
+            if (key == k && !v.is_absent()) found = &v;
+        return found;
+    };
+    py::dict out;
+    std::vector<const cell*> cells(rows.size());
+    for (std::size_t j = 0; j < keys.size(); ++j) {
+        for (std::size_t i = 0; i < rows.size(); ++i) cells[i] = cell_of(*rows[i], j, keys[j]);
+        out[py::str(keys[j])] = column_of_cells(cells);
+    }
+    return out;
+}
+
+}  // namespace
+
+py::object column_of_cells(const std::vector<const cell*>& cells) {
     const std::size_t n = cells.size();
     switch (kind_of(cells)) {
         case column_kind::integers: {
@@ -113,36 +146,6 @@ py::object column(const std::vector<const cell*>& cells) {
     for (const cell* c : cells) out.append(c ? to_python(*c) : py::none());
     return out;
 }
-
-// The rows' keys in order of first appearance, and each row's cell of each key (nullptr: absent).
-py::dict columns_of(const std::vector<const record*>& rows) {
-    std::vector<std::string> keys;
-    for (const record* r : rows)
-        for (std::size_t j = 0; j < r->fields.size(); ++j) {
-            const auto& [k, v] = r->fields[j];
-            if (v.is_absent() || (j < keys.size() && keys[j] == k)) continue;
-            if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
-        }
-    // Rows written from one column declaration hold the same keys in the same place: look there
-    // first, and search the row only when it differs (O(keys x rows) instead of O(keys² x rows)).
-    auto cell_of = [](const record& r, std::size_t hint, const std::string& k) -> const cell* {
-        if (hint < r.fields.size() && r.fields[hint].first == k)
-            return r.fields[hint].second.is_absent() ? nullptr : &r.fields[hint].second;
-        const cell* found = nullptr;
-        for (const auto& [key, v] : r.fields)
-            if (key == k && !v.is_absent()) found = &v;
-        return found;
-    };
-    py::dict out;
-    std::vector<const cell*> cells(rows.size());
-    for (std::size_t j = 0; j < keys.size(); ++j) {
-        for (std::size_t i = 0; i < rows.size(); ++i) cells[i] = cell_of(*rows[i], j, keys[j]);
-        out[py::str(keys[j])] = column(cells);
-    }
-    return out;
-}
-
-}  // namespace
 
 py::object to_python(const cell& c, bool rows_as_columns) {
     return std::visit(

@@ -32,6 +32,29 @@ py::dict empty_columns(const record& r);
 // The same for a list cell of records (JSON rows such as a fit's "profile").
 py::dict to_columns(const cell::list& rows);
 
+// One column of cells (nullptr: no value) as to_columns converts it.
+py::object column_of_cells(const std::vector<const cell*>& cells);
+
+// rows (non-empty) as columns straight from their declaration, without building records: the same
+// dict as to_columns(to_records(columns, rows)) when every row has the same keys.
+template <class T>
+py::dict declared_columns(const std::vector<column<T>>& columns, const std::vector<T>& rows) {
+    py::dict out;
+    std::vector<cell> values(rows.size());
+    std::vector<const cell*> cells(rows.size());
+    for (const column<T>& c : columns) {
+        if (!(c.shown & in_json)) continue;
+        bool any = false;
+        for (std::size_t i = 0; i < rows.size(); ++i) {
+            values[i] = scaled(c.get(rows[i]), c.scale);
+            cells[i] = values[i].is_absent() ? nullptr : &values[i];
+            any = any || cells[i];
+        }
+        if (any) out[py::str(c.key)] = column_of_cells(cells);
+    }
+    return out;
+}
+
 // The values of an array, copied (the GIL is released only after all inputs are copied).
 std::vector<double> to_vector(const double_array& a);
 // values * factor, element by element, as the CLI's unit parser converts ("0.6 nm" -> 0.6 * 1e-9).
