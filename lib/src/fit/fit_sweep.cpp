@@ -1,6 +1,5 @@
 // Fitting one sweep: point selection (noise floor, saturation, contact), the linear or offset
 // model, uncertainties with the piezo calibration folded in, and the local φ_ap(z) profile.
-
 #include <algorithm>
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>

@@ -42,7 +42,8 @@ inline constexpr int linear_passes = 3;
 // wild.
 inline constexpr double observed_floor_fraction = 1.0 / 3.0;
 
-// Student t quantile for a two-sided interval at `confidence_level` with `dof` degrees of freedom.
+// Student t quantile for a two-sided interval at `confidence_level` with `dof` degrees of freedom
+// (remembered per thread for whole dof, so that many curves and pixels compute each once).
 double t_quantile(double dof, double confidence_level);
 // Fills the decay-constant and barrier fields of `r` from κ (1/m), its statistical standard error
 // (1/m) and the degrees of freedom; r.calibration_uncertainty and r.confidence_level must be set.

@@ -194,17 +194,6 @@ double current_decades(const fit_workspace& ws) {
     return std::log10(hi / lo);
 }
 
-double cached_t_quantile(fit_workspace& ws, double dof, double level) {
-    if (ws.t_cache_level != level) {
-        ws.t_cache.clear();
-        ws.t_cache_level = level;
-    }
-    const auto k = static_cast<std::size_t>(dof);
-    if (ws.t_cache.size() <= k) ws.t_cache.resize(k + 1, std::numeric_limits<double>::quiet_NaN());
-    if (std::isnan(ws.t_cache[k])) ws.t_cache[k] = t_quantile(dof, level);
-    return ws.t_cache[k];
-}
-
 void record_linear_fit(fit_result& r, fit_workspace& ws, const line_fit& line) {
     const sorted_sweep& s = ws.sweep;
     const std::vector<std::size_t>& used = ws.used;
@@ -235,7 +224,7 @@ void record_linear_fit(fit_result& r, fit_workspace& ws, const line_fit& line) {
     r.current_decades_used = current_decades(ws);
     const double dof = static_cast<double>(used.size()) - 2.0;
     r.reduced_chi_square = r.current_noise_A > 0.0 ? chi2 / dof : 0.0;
-    fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, dof, cached_t_quantile(ws, dof, r.confidence_level));
+    fill_decay(r, -0.5 * line.slope, 0.5 * line.slope_stderr, dof, t_quantile(dof, r.confidence_level));
 }
 
 }  // namespace tipgap::detail

@@ -43,8 +43,6 @@ struct fit_workspace {
     // candidates of the next reweighting pass.
     std::vector<std::size_t> used, next;
     std::vector<double> weights, next_weights;
-    std::vector<double> t_cache;  // t quantiles by degrees of freedom (NaN: not computed yet)
-    double t_cache_level = 0.0;   // confidence level of t_cache
 };
 
 namespace detail {
@@ -103,10 +101,6 @@ linear_points fit_linear_points(fit_workspace& ws, const point_selection& select
 
 // log10(max |I| / min |I|) over the points ws.used.
 double current_decades(const fit_workspace& ws);
-
-// The Student t quantile of t_quantile, remembered in ws by degrees of freedom (dof: a whole
-// number >= 1; level in (0, 1)).
-double cached_t_quantile(fit_workspace& ws, double dof, double level);
 
 // Step 4: the linear model's fields of `r` (z_ref, line, prefactor, residuals, decades, κ and φ_ap
 // with their intervals) from `line` over ws.used. r.confidence_level and r.calibration_uncertainty
